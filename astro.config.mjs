@@ -1,0 +1,31 @@
+// @ts-check
+import { defineConfig } from 'astro/config';
+import node from '@astrojs/node';
+import react from '@astrojs/react';
+import tailwindcss from '@tailwindcss/vite';
+import auth from 'auth-astro';
+import { chairsidePwa } from './src/lib/pwa-config.mjs';
+
+export default defineConfig({
+  output: 'server',
+  adapter: node({ mode: 'standalone' }),
+  integrations: [react(), auth(), chairsidePwa()],
+  // Without allowedDomains Astro 5.18 ignores the Host header and its origin check
+  // refuses same-origin form posts (the Auth.js sign-in included). See stack-notes.md.
+  security: {
+    checkOrigin: true,
+    allowedDomains: [
+      { hostname: 'localhost' },
+      { hostname: '127.0.0.1' },
+      ...(process.env.PUBLIC_HOST ? [{ hostname: process.env.PUBLIC_HOST }] : []),
+    ],
+  },
+  server: { host: process.env.HOST ?? '127.0.0.1', port: Number(process.env.PORT ?? 4321) },
+  vite: {
+    plugins: [tailwindcss()],
+    // better-sqlite3 and argon2 are native: keep them out of the server bundle.
+    ssr: { external: ['better-sqlite3', '@node-rs/argon2', 'knex'] },
+  },
+  devToolbar: { enabled: false },
+  telemetry: false,
+});

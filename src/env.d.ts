@@ -1,0 +1,16 @@
+/// <reference types="astro/client" />
+
+type Role = 'student' | 'attending' | 'director';
+
+interface SessionUser {
+  id: number;
+  email: string;
+  name: string;
+  role: Role;
+}
+
+declare namespace App {
+  interface Locals {
+    user: SessionUser | null;
+  }
+}
