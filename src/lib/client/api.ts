@@ -1,0 +1,63 @@
+import type { CanalResult, LogEvent } from '../rules/index';
+import type { SyncResult } from './outbox';
+
+/** The signed-in user as `/api/me` answers it. */
+export interface Me { id: number; email?: string; name: string; role: 'student' | 'attending' | 'director' }
+
+/** What came back: a value, "not signed in", or no answer at all (offline, server down). */
+export type Answer<T> =
+  | { kind: 'ok'; value: T }
+  | { kind: 'status'; status: number; error?: string }
+  | { kind: 'offline'; error: string };
+
+async function call<T>(path: string, init?: RequestInit): Promise<Answer<T>> {
+  let res: Response;
+  try {
+    res = await fetch(path, { credentials: 'same-origin', cache: 'no-store', ...init });
+  } catch (e) {
+    return { kind: 'offline', error: e instanceof Error ? e.message : String(e) };
+  }
+  if (res.ok) {
+    try {
+      return { kind: 'ok', value: (await res.json()) as T };
+    } catch {
+      return { kind: 'status', status: res.status, error: 'The server sent something that is not JSON' };
+    }
+  }
+  let error: string | undefined;
+  try { error = ((await res.json()) as { error?: string }).error; } catch { /* no body */ }
+  return { kind: 'status', status: res.status, error };
+}
+
+export function fetchMe(): Promise<Answer<Me>> {
+  return call<Me>('/api/me');
+}
+
+export interface SyncAnswer { results: SyncResult[]; canals: CanalResult[] }
+
+/** POST a batch; JSON content type is required by the server (it checks Origin too). */
+export function postSync(deviceId: string, events: LogEvent[]): Promise<Answer<SyncAnswer>> {
+  return call<SyncAnswer>('/api/sync', {
+    method: 'POST',
+    headers: { 'Content-Type': 'application/json' },
+    body: JSON.stringify({ deviceId, events }),
+  });
+}
+
+export interface CaseSummary {
+  caseId: string;
+  setting: 'block' | 'extracted' | 'patient';
+  tooth?: number | null;
+  chartRef?: string | null;
+  openedAt: string;
+  submitted: boolean;
+  canals: { canalId: string; name: string; status: string }[];
+}
+
+export function fetchCases(): Promise<Answer<{ cases: CaseSummary[] }>> {
+  return call('/api/cases');
+}
+
+export function fetchCase(caseId: string): Promise<Answer<{ caseId: string; events: LogEvent[]; canals: CanalResult[] }>> {
+  return call(`/api/cases/${encodeURIComponent(caseId)}`);
+}

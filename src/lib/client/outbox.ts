@@ -1,0 +1,152 @@
+import { get, set, del, promisifyRequest } from 'idb-keyval';
+import type { CanalResult, LogEvent } from '../rules/index';
+import { useStore, userRange } from './db';
+
+/**
+ * The tablet's event log, keyed by user. Every event the student records is written here
+ * (strict durability) before the screen says "saved". An event stays `queued` — in the
+ * outbox — until the server answers `stored` or `duplicate`; a plain rejection keeps it as
+ * `rejected` with the server's reason so the student can see it.
+ */
+export type EventState = 'queued' | 'synced' | 'rejected';
+
+export interface StoredEvent {
+  userId: number;
+  event: LogEvent;
+  /** Recording order on this tablet (the sync sends events in this order). */
+  seq: number;
+  state: EventState;
+  error?: string;
+  /** How many times the server asked us to send it again later (`retry: true`). */
+  retries?: number;
+}
+
+export interface SyncResult {
+  id: string;
+  status: 'stored' | 'duplicate' | 'rejected';
+  error?: string;
+  retry?: boolean;
+}
+
+const events = () => useStore('events', true);
+const eventsRelaxed = () => useStore('events');
+const server = () => useStore('server');
+const meta = () => useStore('meta', true);
+
+let lastSeq = 0;
+/** Strictly increasing within this page, roughly time-ordered across reloads. */
+function nextSeq(): number {
+  lastSeq = Math.max(lastSeq + 1, Date.now() * 1000);
+  return lastSeq;
+}
+
+/** Record one event for this user; resolves once it is durably on disk. */
+export async function putEvent(userId: number, event: LogEvent): Promise<StoredEvent> {
+  const row: StoredEvent = { userId, event, seq: nextSeq(), state: 'queued' };
+  await set([userId, event.id], row, events());
+  return row;
+}
+
+/** Every event of this user, in recording order. */
+export function listEvents(userId: number): Promise<StoredEvent[]> {
+  return eventsRelaxed()('readonly', (store) =>
+    promisifyRequest(store.getAll(userRange(userId)) as IDBRequest<StoredEvent[]>),
+  ).then((rows) => rows.sort((a, b) => a.seq - b.seq));
+}
+
+/** The outbox: this user's queued events in recording order, at most `limit`. */
+export async function listQueued(userId: number, limit = Infinity): Promise<StoredEvent[]> {
+  const rows = await listEvents(userId);
+  return rows.filter((r) => r.state === 'queued').slice(0, limit);
+}
+
+export async function countQueued(userId: number): Promise<number> {
+  return (await listQueued(userId)).length;
+}
+
+/** Apply the server's answers to the outbox in one strict transaction. */
+export function applyResults(userId: number, results: SyncResult[]): Promise<void> {
+  return events()('readwrite', (store) => {
+    for (const r of results) {
+      const req = store.get([userId, r.id]) as IDBRequest<StoredEvent | undefined>;
+      req.onsuccess = () => {
+        const row = req.result;
+        if (!row) return;
+        if (r.status === 'stored' || r.status === 'duplicate') {
+          row.state = 'synced';
+          delete row.error;
+        } else if (r.retry) {
+          row.state = 'queued';
+          row.retries = (row.retries ?? 0) + 1;
+          row.error = r.error;
+        } else {
+          row.state = 'rejected';
+          row.error = r.error ?? 'Rejected by the server';
+        }
+        store.put(row, [userId, r.id]);
+      };
+    }
+    return promisifyRequest(store.transaction);
+  });
+}
+
+/** Keep events fetched from the server (a case restored onto this tablet) as synced. */
+export function importSynced(userId: number, list: LogEvent[]): Promise<void> {
+  return events()('readwrite', (store) => {
+    for (const event of list) {
+      const req = store.get([userId, event.id]) as IDBRequest<StoredEvent | undefined>;
+      req.onsuccess = () => {
+        if (req.result) return; // never overwrite what this tablet recorded
+        const row: StoredEvent = { userId, event, seq: Date.parse(event.at) * 1000, state: 'synced' };
+        store.put(row, [userId, event.id]);
+      };
+    }
+    return promisifyRequest(store.transaction);
+  });
+}
+
+/** Forget one rejected event the student has read (it was never stored anywhere else). */
+export function dismissRejected(userId: number, eventId: string): Promise<void> {
+  return del([userId, eventId], events());
+}
+
+/** The server's latest verdict per canal. */
+export interface ServerCanal { result: CanalResult; receivedAt: string }
+
+export function putServerCanals(userId: number, canals: CanalResult[]): Promise<void> {
+  const receivedAt = new Date().toISOString();
+  return server()('readwrite', (store) => {
+    for (const c of canals) store.put({ result: c, receivedAt } satisfies ServerCanal, [userId, c.canalId]);
+    return promisifyRequest(store.transaction);
+  });
+}
+
+export function listServerCanals(userId: number): Promise<ServerCanal[]> {
+  return server()('readonly', (store) =>
+    promisifyRequest(store.getAll(userRange(userId)) as IDBRequest<ServerCanal[]>),
+  );
+}
+
+/** Small per-user or per-device values (device id, last user, flow marks). */
+export function getMeta<T>(key: IDBValidKey): Promise<T | undefined> {
+  return get<T>(key, meta());
+}
+export function setMeta(key: IDBValidKey, value: unknown): Promise<void> {
+  return set(key, value, meta());
+}
+export function delMeta(key: IDBValidKey): Promise<void> {
+  return del(key, meta());
+}
+
+/**
+ * Remove everything this tablet holds for one user — only when nothing is left to send.
+ * Returns false (and removes nothing) while the user still has queued events.
+ */
+export async function clearUserIfSynced(userId: number): Promise<boolean> {
+  if ((await countQueued(userId)) > 0) return false;
+  const range = userRange(userId);
+  await events()('readwrite', (store) => { store.delete(range); return promisifyRequest(store.transaction); });
+  await server()('readwrite', (store) => { store.delete(range); return promisifyRequest(store.transaction); });
+  await meta()('readwrite', (store) => { store.delete(range); return promisifyRequest(store.transaction); });
+  return true;
+}

@@ -1,0 +1,90 @@
+import type { CanalResult, LogEvent } from '../rules/index';
+import { fetchMe, postSync, type Answer, type Me, type SyncAnswer } from './api';
+import { applyResults, listQueued, putServerCanals, type StoredEvent } from './outbox';
+
+/** The server takes at most 500 events and 1 MB per batch (sync-contract.md). */
+export const MAX_BATCH_EVENTS = 500;
+export const MAX_BATCH_BYTES = 900_000; // headroom under 1 MB for the envelope
+
+export type SyncOutcome =
+  | { kind: 'done'; sent: number; stored: number; rejected: number; retry: number; canals: CanalResult[] }
+  | { kind: 'offline' }
+  | { kind: 'signed-out' }
+  | { kind: 'other-user'; signedInId: number }
+  | { kind: 'error'; status: number; error?: string };
+
+export interface SyncDeps {
+  whoIsSignedIn: () => Promise<Answer<Me>>;
+  post: (deviceId: string, events: LogEvent[]) => Promise<Answer<SyncAnswer>>;
+}
+const realDeps: SyncDeps = { whoIsSignedIn: fetchMe, post: postSync };
+
+/** Split the outbox, in recording order, into batches the server accepts. */
+export function toBatches(rows: StoredEvent[], maxEvents = MAX_BATCH_EVENTS, maxBytes = MAX_BATCH_BYTES): LogEvent[][] {
+  const batches: LogEvent[][] = [];
+  let current: LogEvent[] = [];
+  let bytes = 0;
+  for (const { event } of rows) {
+    const size = JSON.stringify(event).length + 1;
+    if (current.length > 0 && (current.length >= maxEvents || bytes + size > maxBytes)) {
+      batches.push(current);
+      current = [];
+      bytes = 0;
+    }
+    current.push(event);
+    bytes += size;
+  }
+  if (current.length > 0) batches.push(current);
+  return batches;
+}
+
+/**
+ * Send this user's outbox once. Before sending it asks the server who is signed in and
+ * sends nothing unless that is the outbox's owner: events recorded by one user never go
+ * out under another's session.
+ */
+export async function syncOnce(userId: number, deviceId: string, deps: SyncDeps = realDeps): Promise<SyncOutcome> {
+  const queued = await listQueued(userId);
+  const me = await deps.whoIsSignedIn();
+  if (me.kind === 'offline') return { kind: 'offline' };
+  if (me.kind === 'status') return me.status === 401 ? { kind: 'signed-out' } : { kind: 'error', status: me.status, error: me.error };
+  if (me.value.id !== userId) return { kind: 'other-user', signedInId: me.value.id };
+
+  const total = { sent: 0, stored: 0, rejected: 0, retry: 0 };
+  const canals = new Map<string, CanalResult>();
+  let maxEvents = MAX_BATCH_EVENTS;
+  const pending = toBatches(queued, maxEvents);
+  while (pending.length > 0) {
+    const batch = pending.shift()!;
+    const answer = await deps.post(deviceId, batch);
+    if (answer.kind === 'offline') return { kind: 'offline' };
+    if (answer.kind === 'status') {
+      if (answer.status === 413 && batch.length > 1) {
+        // Too big after all: halve and try again, nothing was stored.
+        maxEvents = Math.max(1, Math.floor(batch.length / 2));
+        pending.unshift(batch.slice(0, maxEvents), batch.slice(maxEvents));
+        continue;
+      }
+      if (answer.status === 401) return { kind: 'signed-out' };
+      return { kind: 'error', status: answer.status, error: answer.error };
+    }
+    const { results, canals: touched } = answer.value;
+    await applyResults(userId, results);
+    if (touched?.length) await putServerCanals(userId, touched);
+    for (const c of touched ?? []) canals.set(c.canalId, c);
+    total.sent += batch.length;
+    for (const r of results) {
+      if (r.status === 'stored' || r.status === 'duplicate') total.stored++;
+      else if (r.retry) total.retry++;
+      else total.rejected++;
+    }
+  }
+  return { kind: 'done', ...total, canals: [...canals.values()] };
+}
+
+/** Back-off after failed attempts: 2 s, 4 s, 8 s … capped at 5 minutes, with jitter. */
+export function backoffMs(failures: number, random = Math.random): number {
+  if (failures <= 0) return 0;
+  const base = Math.min(2000 * 2 ** (failures - 1), 300_000);
+  return Math.round(base * (0.8 + 0.4 * random()));
+}

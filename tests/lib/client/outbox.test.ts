@@ -1,0 +1,71 @@
+import 'fake-indexeddb/auto';
+import { IDBFactory } from 'fake-indexeddb';
+import { beforeEach, describe, expect, it } from 'vitest';
+import type { LogEvent } from '../../../src/lib/rules/index';
+import { closeDb } from '../../../src/lib/client/db';
+import {
+  applyResults, clearUserIfSynced, countQueued, importSynced, listEvents, listQueued, listServerCanals, putEvent, putServerCanals,
+} from '../../../src/lib/client/outbox';
+
+let n = 0;
+function event(caseId = 'case-1', type = 'seat.checked'): LogEvent {
+  n += 1;
+  return { id: `ev-${n}`, caseId, canalId: 'canal-1', type, at: new Date(Date.UTC(2026, 2, 2, 9, 0, n)).toISOString(), data: {} } as unknown as LogEvent;
+}
+
+beforeEach(async () => {
+  await closeDb();
+  globalThis.indexedDB = new IDBFactory();
+});
+
+describe('putEvent and listQueued', () => {
+  it('keeps each user\'s events apart, in recording order', async () => {
+    const a1 = event(); const b1 = event(); const a2 = event();
+    await putEvent(1, a1); await putEvent(2, b1); await putEvent(1, a2);
+    expect((await listQueued(1)).map((r) => r.event.id)).toEqual([a1.id, a2.id]);
+    expect((await listQueued(2)).map((r) => r.event.id)).toEqual([b1.id]);
+  });
+});
+
+describe('applyResults', () => {
+  it('lets an event leave the outbox only when stored or duplicate', async () => {
+    const [s, d, r, t] = [event(), event(), event(), event()];
+    for (const e of [s, d, r, t]) await putEvent(7, e);
+    await applyResults(7, [
+      { id: s.id, status: 'stored' },
+      { id: d.id, status: 'duplicate' },
+      { id: r.id, status: 'rejected', error: 'depthMm must be a multiple of 0.5 mm' },
+      { id: t.id, status: 'rejected', error: 'unknown canal', retry: true },
+    ]);
+    expect((await listQueued(7)).map((x) => x.event.id)).toEqual([t.id]);
+    const rows = await listEvents(7);
+    expect(rows.find((x) => x.event.id === r.id)).toMatchObject({ state: 'rejected', error: 'depthMm must be a multiple of 0.5 mm' });
+    expect(rows.find((x) => x.event.id === t.id)).toMatchObject({ state: 'queued', retries: 1 });
+  });
+});
+
+describe('clearUserIfSynced', () => {
+  it('keeps a user\'s data while anything is unsent and clears only that user after', async () => {
+    const a = event(); const b = event();
+    await putEvent(1, a); await putEvent(2, b);
+    await putServerCanals(1, [{ canalId: 'canal-1', caseId: 'case-1', state: {}, findings: [] } as never]);
+    expect(await clearUserIfSynced(1)).toBe(false);
+    expect(await countQueued(1)).toBe(1);
+    await applyResults(1, [{ id: a.id, status: 'stored' }]);
+    expect(await clearUserIfSynced(1)).toBe(true);
+    expect(await listEvents(1)).toEqual([]);
+    expect(await listServerCanals(1)).toEqual([]);
+    expect(await countQueued(2)).toBe(1);
+  });
+});
+
+describe('importSynced', () => {
+  it('keeps server events as synced without overwriting what the tablet recorded', async () => {
+    const local = event();
+    await putEvent(3, local);
+    await importSynced(3, [local, event()]);
+    const rows = await listEvents(3);
+    expect(rows).toHaveLength(2);
+    expect(rows.filter((r) => r.state === 'queued')).toHaveLength(1);
+  });
+});
