@@ -1,0 +1,129 @@
+// Field schemas for event data. Each one writes its own message, naming the field and what
+// is allowed, so that formatZodError can show it to a person as it is.
+import { z } from 'zod';
+import { normaliseSize, SIZE_RULE_TEXT } from './sizes';
+import { isValidFdi } from './teeth';
+
+type Check<T> = (v: unknown, fail: (message: string) => never) => T;
+
+class FieldFailure extends Error {}
+
+/** A required field whose parsing and message are entirely ours. */
+function field<T>(name: string, check: Check<T>) {
+  return z.unknown().transform((v, ctx): T => {
+    if (v === undefined || v === null) return fail(ctx, `${name} is required`);
+    return run(v, ctx, check);
+  });
+}
+
+/** An optional field: absent or null means "not given". */
+function optionalField<T>(name: string, check: Check<T>) {
+  void name;
+  return z.unknown().transform((v, ctx): T | undefined => {
+    if (v === undefined || v === null) return undefined;
+    return run(v, ctx, check);
+  });
+}
+
+function run<T>(v: unknown, ctx: z.RefinementCtx, check: Check<T>): T {
+  try {
+    return check(v, (message) => {
+      throw new FieldFailure(message);
+    });
+  } catch (e) {
+    if (e instanceof FieldFailure) return fail(ctx, e.message);
+    throw e;
+  }
+}
+
+function fail(ctx: z.RefinementCtx, message: string): never {
+  ctx.addIssue({ code: z.ZodIssueCode.custom, message });
+  return z.NEVER;
+}
+
+function mmCheck(name: string, min: number, max: number): Check<number> {
+  return (v, no) => {
+    if (typeof v !== 'number' || !Number.isFinite(v)) return no(`${name} must be a number of millimetres`);
+    if (v < min || v > max) return no(`${name} must be between ${min} and ${max} mm`);
+    if (!Number.isInteger(v * 2)) return no(`${name} must be a multiple of 0.5 mm`);
+    return v === 0 ? 0 : v; // -0 → 0, so that canonical JSON does not depend on the sign of zero
+  };
+}
+
+/** A length from the reference point (cwlMm, lengthMm, depthMm, measuredMm): 0.5–40 mm in 0.5 mm steps. */
+export const lengthMm = (name: string) => field(name, mmCheck(name, 0.5, 40));
+/** orificeDepthMm: 0–20 mm in 0.5 mm steps. */
+export const optionalOrificeMm = (name: string) => optionalField(name, mmCheck(name, 0, 20));
+/** relativeToCejMm: −5 to +5 mm in 0.5 mm steps (negative = above the CEJ). */
+export const optionalCejMm = (name: string) => optionalField(name, mmCheck(name, -5, 5));
+
+const sizeCheck = (name: string): Check<string> => (v, no) =>
+  normaliseSize(v) ?? no(`${name} must be ${SIZE_RULE_TEXT}`);
+export const size = (name: string) => field(name, sizeCheck(name));
+export const optionalSize = (name: string) => optionalField(name, sizeCheck(name));
+
+export function oneOf<const T extends readonly string[]>(name: string, values: T) {
+  return field(name, (v, no): T[number] =>
+    typeof v === 'string' && (values as readonly string[]).includes(v) ? (v as T[number]) : no(`${name} must be one of ${values.join(', ')}`),
+  );
+}
+export function optionalOneOf<const T extends readonly string[]>(name: string, values: T) {
+  return optionalField(name, (v, no): T[number] =>
+    typeof v === 'string' && (values as readonly string[]).includes(v) ? (v as T[number]) : no(`${name} must be one of ${values.join(', ')}`),
+  );
+}
+
+const boolCheck = (name: string): Check<boolean> => (v, no) => (typeof v === 'boolean' ? v : no(`${name} must be true or false`));
+export const bool = (name: string) => field(name, boolCheck(name));
+export const optionalBool = (name: string) => optionalField(name, boolCheck(name));
+
+const textCheck = (name: string, max: number, allowEmpty: boolean): Check<string> => (v, no) => {
+  if (typeof v !== 'string') return no(`${name} must be text`);
+  const s = v.trim();
+  if (!allowEmpty && s.length === 0) return no(`${name} must not be empty`);
+  if (s.length > max) return no(`${name} must be at most ${max.toLocaleString('en-GB')} characters`);
+  return s;
+};
+/** Free text, trimmed and length-limited; required and not empty. */
+export const text = (name: string, max: number) => field(name, textCheck(name, max, false));
+/** Free text that must be present but may be empty (a reason the tablet may leave blank). */
+export const textMayBeEmpty = (name: string, max: number) => field(name, textCheck(name, max, true));
+export const optionalText = (name: string, max: number) => optionalField(name, textCheck(name, max, true));
+
+const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+const uuidCheck = (name: string): Check<string> => (v, no) =>
+  typeof v === 'string' && UUID.test(v) ? v.toLowerCase() : no(`${name} must be a UUID`);
+/** A UUID, lower-cased (UUIDs are case-insensitive; one spelling keeps duplicates recognisable). */
+export const uuid = (name: string) => field(name, uuidCheck(name));
+export const optionalUuid = (name: string) => optionalField(name, uuidCheck(name));
+
+export const FDI_RULE_TEXT = 'an FDI tooth number (quadrants 1–4 with teeth 1–8, or primary quadrants 5–8 with teeth 1–5)';
+export const optionalTooth = (name: string) =>
+  optionalField(name, (v, no): number => (typeof v === 'number' && isValidFdi(v) ? v : no(`${name} must be ${FDI_RULE_TEXT}`)));
+
+/**
+ * Preparation: "step-back" or a fixed taper written "0.02"–"0.12". A number such as 0.04 is
+ * read as "0.04", the way sizes are read (our decision; the contract shows the taper as 0.04).
+ */
+export const preparation = (name: string) =>
+  field(name, (v, no): string => {
+    const s = typeof v === 'number' && Number.isFinite(v) ? v.toFixed(2) : v;
+    if (s === 'step-back') return s;
+    if (typeof s === 'string' && /^0\.(0[2-9]|1[0-2])$/.test(s) && (typeof v === 'string' || Number(s) === v)) return s;
+    return no(`${name} must be "step-back" or a taper from 0.02 to 0.12 such as 0.04`);
+  });
+
+export const SOLUTIONS = ['naocl', 'edta', 'saline', 'chlorhexidine'] as const;
+/** Rinse solutions: a non-empty list, duplicates dropped, the order kept. */
+export const solutions = (name: string) =>
+  field(name, (v, no): (typeof SOLUTIONS)[number][] => {
+    const message = `${name} must list one or more of ${SOLUTIONS.join(', ')}`;
+    if (!Array.isArray(v) || v.length === 0) return no(message);
+    const out: (typeof SOLUTIONS)[number][] = [];
+    for (const s of v) {
+      if (typeof s !== 'string' || !(SOLUTIONS as readonly string[]).includes(s)) return no(message);
+      const known = s as (typeof SOLUTIONS)[number];
+      if (!out.includes(known)) out.push(known);
+    }
+    return out;
+  });
