@@ -1,0 +1,47 @@
+// evaluateCanal: one canal's events in, its derived state and findings out.
+import { compactionChecks } from './checks-compaction';
+import { finishChecks } from './checks-finish';
+import { setupChecks } from './checks-setup';
+import type { LogEvent } from './events';
+import type { Finding, Severity } from './findings';
+import { deriveState, type CanalState } from './state';
+import { canalTimeline } from './timeline';
+import { resolveTolerances, type Tolerances } from './tolerances';
+import { buildView } from './view';
+
+export interface CanalResult {
+  canalId: string;
+  caseId: string;
+  state: CanalState;
+  findings: Finding[];
+}
+
+const SEVERITY_RANK: Record<Severity, number> = { stop: 0, caution: 1, note: 2 };
+
+/**
+ * The state and open findings of one canal. `events` may hold the whole case, in any order:
+ * the canal's own events and the case-level ones are used, voided events dropped, the rest
+ * taken by `at` (as an instant) then id. Null when the case's `case.opened` or this canal's
+ * `canal.added` is missing. Findings are listed stops first, then cautions, then notes, each
+ * group in the order of the events that raised them. Never throws.
+ */
+export function evaluateCanal(canalId: string, events: readonly LogEvent[], tolerances?: Partial<Tolerances>): CanalResult | null {
+  try {
+    const timeline = canalTimeline(canalId, events);
+    if (timeline === null) return null;
+    const view = buildView(canalId, timeline, resolveTolerances(tolerances));
+    if (view === null) return null;
+    const position = new Map(view.events.map((e, i) => [e.id, i]));
+    const findings = [...setupChecks(view), ...compactionChecks(view), ...finishChecks(view)]
+      .map((f, n) => ({ f, n }))
+      .sort((a, b) =>
+        SEVERITY_RANK[a.f.severity] - SEVERITY_RANK[b.f.severity] ||
+        (position.get(a.f.eventId ?? '') ?? -1) - (position.get(b.f.eventId ?? '') ?? -1) ||
+        a.n - b.n)
+      .map((x) => x.f);
+    return { canalId, caseId: timeline.caseId, state: deriveState(view), findings };
+  } catch {
+    // Only input that never passed parseEvent can get here; it has no state to report.
+    return null;
+  }
+}
