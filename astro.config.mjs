@@ -27,5 +27,4 @@ export default defineConfig({
     ssr: { external: ['better-sqlite3', '@node-rs/argon2', 'knex'] },
   },
   devToolbar: { enabled: false },
-  telemetry: false,
 });

@@ -1,0 +1,20 @@
+/** The audit log: who did what to which record. Never holds names or chart numbers. */
+import type { Knex } from 'knex';
+
+export async function audit(
+  k: Knex,
+  actorId: number | null,
+  action: string,
+  subjectType: string | null,
+  subjectId: string | null,
+  detail?: Record<string, unknown>,
+): Promise<void> {
+  await k('audit_log').insert({
+    at: new Date().toISOString(),
+    actor_id: actorId,
+    action,
+    subject_type: subjectType,
+    subject_id: subjectId,
+    detail_json: detail ? JSON.stringify(detail) : null,
+  });
+}

@@ -1,0 +1,101 @@
+/** Reads and writes the derived canal rows: state, status and findings, from the rules core. */
+import type { Knex } from 'knex';
+import { evaluateCanal, type CanalResult, type LogEvent, type Tolerances } from '../rules/index';
+import { tolerances } from './settings';
+
+interface EventRow {
+  id: string;
+  case_id: string;
+  canal_id: string | null;
+  type: string;
+  at: string;
+  data_json: string;
+}
+
+export function rowToEvent(r: EventRow): LogEvent {
+  const e: Record<string, unknown> = { id: r.id, caseId: r.case_id, type: r.type, at: r.at, data: JSON.parse(r.data_json) };
+  if (r.canal_id) e.canalId = r.canal_id;
+  return e as unknown as LogEvent;
+}
+
+export async function caseEvents(k: Knex, caseId: string): Promise<LogEvent[]> {
+  const rows = await k<EventRow>('events')
+    .select('id', 'case_id', 'canal_id', 'type', 'at', 'data_json')
+    .where({ case_id: caseId });
+  return rows.map(rowToEvent);
+}
+
+/** Recomputes and stores the given canals of one case; returns their results. */
+export async function recomputeCanals(
+  k: Knex,
+  caseId: string,
+  canalIds: Iterable<string>,
+  tol?: Tolerances,
+): Promise<CanalResult[]> {
+  const events = await caseEvents(k, caseId);
+  const t = tol ?? (await tolerances(k));
+  const out: CanalResult[] = [];
+  for (const canalId of canalIds) {
+    const result = evaluateCanal(canalId, events, t);
+    if (!result) continue;
+    const count = (s: string) => result.findings.filter((f) => f.severity === s).length;
+    await k('canals').where({ id: canalId }).update({
+      status: result.state.status,
+      name: result.state.name,
+      state_json: JSON.stringify(result.state),
+      stops: count('stop'),
+      cautions: count('caution'),
+      notes: count('note'),
+      updated_at: k.fn.now(),
+    });
+    await k('findings').where({ canal_id: canalId }).delete();
+    if (result.findings.length > 0) {
+      await k('findings').insert(
+        result.findings.map((f) => ({
+          canal_id: canalId,
+          case_id: caseId,
+          code: f.code,
+          severity: f.severity,
+          event_id: f.eventId ?? null,
+          message: f.message,
+        })),
+      );
+    }
+    out.push(result);
+  }
+  return out;
+}
+
+interface CanalRow {
+  id: string;
+  case_id: string;
+  state_json: string;
+  review_status?: string;
+}
+
+/** The stored canal as the API answers it; the review states come from the sign-offs. */
+export async function storedCanal(k: Knex, canalId: string): Promise<CanalResult | null> {
+  const row = await k<CanalRow>('canals')
+    .join('cases', 'cases.id', 'canals.case_id')
+    .select('canals.id', 'canals.case_id', 'canals.state_json', 'cases.review_status')
+    .where('canals.id', canalId)
+    .first();
+  if (!row) return null;
+  const findings = await k('findings')
+    .select('code', 'severity', 'event_id', 'message')
+    .where({ canal_id: canalId })
+    .orderBy('id');
+  const state = JSON.parse(row.state_json) as CanalResult['state'] & { status: string };
+  if (row.review_status === 'approved' || row.review_status === 'returned') state.status = row.review_status as never;
+  return {
+    canalId: row.id,
+    caseId: row.case_id,
+    state,
+    findings: findings.map((f: { code: string; severity: string; event_id: string | null; message: string }) => ({
+      code: f.code,
+      severity: f.severity,
+      ...(f.event_id ? { eventId: f.event_id } : {}),
+      message: f.message,
+    })) as CanalResult['findings'],
+  };
+}

@@ -1,0 +1,56 @@
+/**
+ * The one typed place the server reads its environment from. Every value has a default
+ * that makes `npm start` work on a fresh machine with no variables set.
+ */
+import { randomBytes } from 'node:crypto';
+import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { dirname, resolve } from 'node:path';
+
+export interface ServerConfig {
+  dbFile: string;
+  dataDir: string;
+  authSecret: string;
+  s3: { endpoint: string | undefined; bucket: string; region: string; accessKeyId: string; secretAccessKey: string };
+  smtp: { host: string; port: number; from: string };
+  publicUrl: string;
+}
+
+let cached: ServerConfig | null = null;
+
+/** Reads AUTH_SECRET, or keeps a generated one in the data folder so sessions survive restarts. */
+function authSecret(dataDir: string): string {
+  const fromEnv = process.env.AUTH_SECRET;
+  if (fromEnv && fromEnv.length >= 32) return fromEnv;
+  const file = resolve(dataDir, 'auth-secret');
+  if (existsSync(file)) return readFileSync(file, 'utf8').trim();
+  mkdirSync(dataDir, { recursive: true });
+  const secret = randomBytes(32).toString('hex');
+  writeFileSync(file, secret + '\n', { mode: 0o600 });
+  return secret;
+}
+
+export function config(): ServerConfig {
+  if (cached) return cached;
+  const dbFile = resolve(process.env.DB_FILE ?? 'data/coneline.sqlite');
+  const dataDir = process.env.DATA_DIR ? resolve(process.env.DATA_DIR) : dirname(dbFile);
+  const port = process.env.PORT ?? '4321';
+  cached = {
+    dbFile,
+    dataDir,
+    authSecret: authSecret(dataDir),
+    s3: {
+      endpoint: process.env.S3_ENDPOINT,
+      bucket: process.env.S3_BUCKET ?? 'coneline-radiographs',
+      region: process.env.S3_REGION ?? 'us-east-1',
+      accessKeyId: process.env.S3_ACCESS_KEY_ID ?? 'S3RVER',
+      secretAccessKey: process.env.S3_SECRET_ACCESS_KEY ?? 'S3RVER',
+    },
+    smtp: {
+      host: process.env.SMTP_HOST ?? '127.0.0.1',
+      port: Number(process.env.SMTP_PORT ?? 1025),
+      from: process.env.MAIL_FROM ?? 'Coneline <coneline@localhost>',
+    },
+    publicUrl: process.env.PUBLIC_URL ?? `http://localhost:${port}`,
+  };
+  return cached;
+}

@@ -1,0 +1,47 @@
+/** The server's one Knex instance, with the migrations bundled into the build. */
+import knexFactory, { type Knex } from 'knex';
+import { mkdirSync } from 'node:fs';
+import { dirname } from 'node:path';
+import { config } from './config';
+import { sqliteOptions } from './knex-options';
+
+type MigrationModule = Knex.Migration;
+
+// Bundled at build time so no TypeScript loader is needed at run time; the names are the
+// file names, exactly as the Knex CLI records them, so both agree on what has run.
+const modules = import.meta.glob<MigrationModule>('../../../db/migrations/*.ts', { eager: true });
+
+export const bundledMigrations: Knex.MigrationSource<string> = {
+  async getMigrations() {
+    return Object.keys(modules).sort();
+  },
+  getMigrationName(path) {
+    return path.slice(path.lastIndexOf('/') + 1);
+  },
+  async getMigration(path) {
+    const mod = modules[path];
+    if (!mod) throw new Error(`migration ${path} is not bundled`);
+    return mod;
+  },
+};
+
+let instance: Knex | null = null;
+let ready: Promise<Knex> | null = null;
+
+/** The database, migrated to the latest schema on first use. */
+export function db(): Promise<Knex> {
+  if (!ready) {
+    const file = config().dbFile;
+    mkdirSync(dirname(file), { recursive: true });
+    instance = knexFactory(sqliteOptions(file));
+    const k = instance;
+    ready = k.migrate.latest({ migrationSource: bundledMigrations }).then(() => k);
+  }
+  return ready;
+}
+
+export async function closeDb(): Promise<void> {
+  if (instance) await instance.destroy();
+  instance = null;
+  ready = null;
+}

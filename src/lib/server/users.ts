@@ -1,0 +1,82 @@
+/** Accounts: lookup, password checks, creation, session versions. */
+import { hash, verify } from '@node-rs/argon2';
+import type { Knex } from 'knex';
+import { z } from 'zod';
+import { audit } from './audit';
+
+export const ROLES = ['student', 'attending', 'director'] as const;
+export type UserRole = (typeof ROLES)[number];
+
+export interface UserRow {
+  id: number;
+  email: string;
+  name: string;
+  role: UserRole;
+  active: number | boolean;
+  password_hash: string | null;
+  session_version: number;
+  cohort_id: number | null;
+}
+
+export const MIN_PASSWORD_LENGTH = 12;
+
+export const newUserSchema = z.object({
+  email: z.string().trim().toLowerCase().email('email must be an e-mail address'),
+  name: z.string().trim().min(1, 'name is required').max(120, 'name must be at most 120 characters'),
+  role: z.enum(ROLES, { errorMap: () => ({ message: 'role must be student, attending or director' }) }),
+  password: z
+    .string()
+    .min(MIN_PASSWORD_LENGTH, `password must be at least ${MIN_PASSWORD_LENGTH} characters`)
+    .max(200, 'password must be at most 200 characters'),
+  cohortId: z.number().int().positive().nullable().optional(),
+});
+export type NewUser = z.infer<typeof newUserSchema>;
+
+export function hashPassword(password: string): Promise<string> {
+  return hash(password);
+}
+
+export async function findUserByEmail(k: Knex, email: string): Promise<UserRow | undefined> {
+  return k<UserRow>('users').where({ email: email.trim().toLowerCase() }).first();
+}
+
+export async function findUserById(k: Knex, id: number): Promise<UserRow | undefined> {
+  return k<UserRow>('users').where({ id }).first();
+}
+
+// A hash to verify against when the e-mail is unknown, so both failures take as long.
+let decoyHash: Promise<string> | null = null;
+
+/** The active user with this e-mail and password, or null. */
+export async function checkPassword(k: Knex, email: string, password: string): Promise<UserRow | null> {
+  const user = await findUserByEmail(k, email);
+  decoyHash ??= hash('coneline-decoy-password');
+  const stored = user?.password_hash ?? (await decoyHash);
+  const ok = await verify(stored, password).catch(() => false);
+  if (!user || !ok || !user.active || !user.password_hash) return null;
+  return user;
+}
+
+/** Creates an account; throws a plain-worded Error on a duplicate e-mail. */
+export async function createUser(k: Knex, input: NewUser, actorId: number | null = null): Promise<UserRow> {
+  const u = newUserSchema.parse(input);
+  if (await findUserByEmail(k, u.email)) throw new Error(`an account for ${u.email} already exists`);
+  const password_hash = await hashPassword(u.password);
+  const [row] = await k('users')
+    .insert({ email: u.email, name: u.name, role: u.role, password_hash, cohort_id: u.cohortId ?? null })
+    .returning('id');
+  const id = typeof row === 'object' ? (row as { id: number }).id : (row as number);
+  await audit(k, actorId, 'user.created', 'user', String(id), { role: u.role });
+  const created = await findUserById(k, id);
+  if (!created) throw new Error('the account was not stored');
+  return created;
+}
+
+/** Ends every session of the user (sign-out, deactivation, password change). */
+export async function bumpSessionVersion(k: Knex, userId: number): Promise<void> {
+  await k('users').where({ id: userId }).increment('session_version', 1);
+}
+
+export function toSessionUser(u: UserRow): SessionUser {
+  return { id: u.id, email: u.email, name: u.name, role: u.role };
+}

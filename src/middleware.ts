@@ -1,0 +1,65 @@
+// Session into Astro.locals and a coarse gate; every handler still authorises the data it
+// touches (conventions.md).
+import { defineMiddleware } from 'astro:middleware';
+import { getSession } from 'auth-astro/server';
+import { userFromSession } from './lib/server/session';
+import { jsonError } from './lib/server/http';
+
+/** Pages anyone may open. The chairside shell is static and holds no data. */
+const PUBLIC_PAGES = [/^\/signin\/?$/, /^\/chairside\/?$/, /^\/invite\//, /^\/reset-password/, /^\/forgot-password\/?$/];
+
+/** Path prefixes and the roles allowed there. */
+const ROLE_GATES: { prefix: string; roles: Role[] }[] = [
+  { prefix: '/review', roles: ['attending', 'director'] },
+  { prefix: '/admin', roles: ['director'] },
+  { prefix: '/api/admin', roles: ['director'] },
+  { prefix: '/reports', roles: ['director'] },
+];
+
+const SECURITY_HEADERS: Record<string, string> = {
+  'X-Content-Type-Options': 'nosniff',
+  'Referrer-Policy': 'same-origin',
+  'Content-Security-Policy': "frame-ancestors 'none'; base-uri 'self'; object-src 'none'; form-action 'self'",
+  'Permissions-Policy': 'camera=(self), geolocation=(), microphone=()',
+};
+
+function withHeaders(res: Response): Response {
+  try {
+    for (const [k, v] of Object.entries(SECURITY_HEADERS)) if (!res.headers.has(k)) res.headers.set(k, v);
+  } catch {
+    // Some responses (redirects made by Response.redirect) have immutable headers.
+  }
+  return res;
+}
+
+export const onRequest = defineMiddleware(async (ctx, next) => {
+  ctx.locals.user = null;
+  if (ctx.isPrerendered) return next();
+  const path = ctx.url.pathname;
+  if (path.startsWith('/api/auth/')) return withHeaders(await next());
+
+  let user: SessionUser | null = null;
+  try {
+    user = await userFromSession(await getSession(ctx.request));
+  } catch {
+    user = null; // A malformed or foreign cookie is simply no session.
+  }
+  ctx.locals.user = user;
+
+  const isApi = path.startsWith('/api/');
+  if (!user) {
+    if (isApi) return withHeaders(jsonError(401, 'Sign in first.'));
+    if (!PUBLIC_PAGES.some((re) => re.test(path))) {
+      const callbackUrl = encodeURIComponent(path + ctx.url.search);
+      return ctx.redirect(`/signin?callbackUrl=${callbackUrl}`, 302);
+    }
+    return withHeaders(await next());
+  }
+
+  const gate = ROLE_GATES.find((g) => path === g.prefix || path.startsWith(g.prefix + '/'));
+  if (gate && !gate.roles.includes(user.role)) {
+    if (isApi) return withHeaders(jsonError(403, 'Your role may not do this.'));
+    return withHeaders(await ctx.rewrite('/forbidden'));
+  }
+  return withHeaders(await next());
+});

@@ -1,0 +1,44 @@
+import type { APIRoute } from 'astro';
+import { z } from 'zod';
+import { db } from '../../lib/server/db';
+import { isJson, json, jsonError, sameOrigin } from '../../lib/server/http';
+import { ingestBatch } from '../../lib/server/sync';
+import { readBody } from '../../lib/server/body';
+
+const MAX_BYTES = 1024 * 1024;
+const MAX_EVENTS = 500;
+
+const batchSchema = z.object({
+  deviceId: z.string().trim().min(1, 'deviceId is required').max(80, 'deviceId must be at most 80 characters'),
+  events: z.array(z.unknown(), { required_error: 'events is required', invalid_type_error: 'events must be a list' }),
+});
+
+export const POST: APIRoute = async ({ request, locals }) => {
+  const user = locals.user;
+  if (!user) return jsonError(401, 'Sign in first.');
+  if (!sameOrigin(request)) return jsonError(403, 'This request did not come from Coneline.');
+  if (user.role !== 'student') return jsonError(403, 'Only students record procedures.');
+  if (!isJson(request)) return jsonError(415, 'Send the batch as application/json.');
+
+  let body: { text: string; tooLarge: boolean };
+  try {
+    body = await readBody(request, MAX_BYTES);
+  } catch {
+    return jsonError(400, 'The body could not be read.');
+  }
+  if (body.tooLarge) return jsonError(413, 'The batch is over 1 MB; send fewer events at a time.');
+  let raw: unknown;
+  try {
+    raw = JSON.parse(body.text);
+  } catch {
+    return jsonError(400, 'The body is not valid JSON.');
+  }
+  if (Array.isArray((raw as { events?: unknown })?.events) && (raw as { events: unknown[] }).events.length > MAX_EVENTS) {
+    return jsonError(413, `A batch holds at most ${MAX_EVENTS} events.`);
+  }
+  const batch = batchSchema.safeParse(raw);
+  if (!batch.success) return jsonError(400, `Not a sync batch: ${batch.error.issues[0]?.message ?? 'wrong shape'}.`);
+
+  const answer = await ingestBatch(await db(), user.id, batch.data.deviceId, batch.data.events);
+  return json(answer);
+};

@@ -1,0 +1,77 @@
+import { execFileSync } from 'node:child_process';
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import knexFactory, { type Knex } from 'knex';
+import { afterEach, beforeEach, describe, expect, it } from 'vitest';
+import { bundledMigrations } from '../../src/lib/server/db';
+import { sqliteOptions } from '../../src/lib/server/knex-options';
+import { ROOT, TSX } from '../helpers/paths';
+
+const DOMAIN_TABLES = [
+  'users', 'cohorts', 'assignments', 'cases', 'canals', 'events', 'findings', 'radiographs',
+  'signoffs', 'comments', 'invitations', 'password_resets', 'settings', 'audit_log',
+];
+
+async function tables(k: Knex): Promise<string[]> {
+  const rows = (await k.raw("select name from sqlite_master where type = 'table' and name not like 'sqlite_%'")) as { name: string }[];
+  return rows.map((r) => r.name).sort();
+}
+
+describe('the migrations', () => {
+  let dir: string;
+  let k: Knex;
+  beforeEach(() => {
+    dir = mkdtempSync(join(tmpdir(), 'coneline-mig-'));
+    k = knexFactory(sqliteOptions(join(dir, 'db.sqlite')));
+  });
+  afterEach(async () => {
+    await k.destroy();
+    rmSync(dir, { recursive: true, force: true });
+  });
+
+  it('create every table of the domain on an empty database and drop them all again', async () => {
+    await k.migrate.latest({ migrationSource: bundledMigrations });
+    expect(await tables(k)).toEqual(expect.arrayContaining(DOMAIN_TABLES));
+    await k.migrate.rollback({ migrationSource: bundledMigrations }, true);
+    const left = (await tables(k)).filter((t) => !t.startsWith('knex_'));
+    expect(left).toEqual([]);
+    await k.migrate.latest({ migrationSource: bundledMigrations });
+    expect(await tables(k)).toEqual(expect.arrayContaining(DOMAIN_TABLES));
+  });
+
+  it('set WAL, synchronous=FULL and foreign keys on every connection', async () => {
+    const raw = await k.client.acquireConnection();
+    try {
+      expect(raw.pragma('journal_mode', { simple: true })).toBe('wal');
+      expect(raw.pragma('synchronous', { simple: true })).toBe(2); // 2 = FULL
+      expect(raw.pragma('foreign_keys', { simple: true })).toBe(1);
+    } finally {
+      await k.client.releaseConnection(raw);
+    }
+  });
+
+  it('refuse a canal whose case does not exist (foreign keys are on)', async () => {
+    await k.migrate.latest({ migrationSource: bundledMigrations });
+    await expect(
+      k('canals').insert({ id: '00000000-0000-4000-8000-000000000001', case_id: '00000000-0000-4000-8000-000000000002', name: 'MB', status: 'set-up', state_json: '{}' }),
+    ).rejects.toThrow(/FOREIGN KEY/);
+  });
+
+  it('are recorded under the same names by the Knex CLI and by the server', async () => {
+    const file = join(dir, 'cli.sqlite');
+    execFileSync(process.execPath, [TSX, 'node_modules/knex/bin/cli.js', 'migrate:latest', '--knexfile', 'knexfile.ts'], {
+      cwd: ROOT, env: { ...process.env, DB_FILE: file }, stdio: 'pipe',
+    });
+    const cli = knexFactory(sqliteOptions(file));
+    try {
+      const ran = ((await cli('knex_migrations').select('name').orderBy('id')) as { name: string }[]).map((r) => r.name);
+      const bundled = (await bundledMigrations.getMigrations([])).map((m) => bundledMigrations.getMigrationName(m));
+      expect(ran).toEqual(bundled);
+      const [, pending] = (await cli.migrate.list({ migrationSource: bundledMigrations })) as [unknown[], unknown[]];
+      expect(pending).toEqual([]);
+    } finally {
+      await cli.destroy();
+    }
+  });
+});
