@@ -1,0 +1,80 @@
+import { useEffect, useMemo } from 'react';
+import type { LogEvent } from '../../lib/rules/index';
+import type { CanalInfo, Setting } from '../../lib/client/events';
+import { nextCard, type Card } from '../../lib/client/flow';
+import { useChairside } from '../../lib/client/store';
+import { shownResult } from '../../lib/client/views';
+import { keepAwake } from '../../lib/client/wakeLock';
+import { CanalDiagram } from '../shared/CanalDiagram';
+import type { CardProps } from './cardTypes';
+import { FindingList, JustEntered } from './FindingList';
+import { AccessoryCard, RemoveCard, SpreaderCard } from './StepCardsCompaction';
+import { CleanCard, CompactCard, DoneCard, FillCard, SearCard } from './StepCardsFinish';
+import { DryCard, MasterCard, RadiographCard, RinseCard, SealCard, SeatCard, TaperCard } from './StepCardsPrep';
+
+function renderCard(card: Card, p: CardProps, onFinishTooth: () => void, retake: boolean) {
+  switch (card.kind) {
+    case 'seat': return <SeatCard {...p} />;
+    case 'taper': return <TaperCard {...p} centre={card.centre} />;
+    case 'radiograph': return <RadiographCard {...p} purpose={card.purpose} retake={retake && card.purpose === 'cone-fit'} />;
+    case 'rinse': return <RinseCard {...p} />;
+    case 'dry': return <DryCard {...p} centre={card.centre} />;
+    case 'master': return <MasterCard {...p} centre={card.centre} refit={card.refit} />;
+    case 'seal': return <SealCard {...p} />;
+    case 'spreader': return <SpreaderCard {...p} cycle={card.cycle} centre={card.centre} complete={card.complete} />;
+    case 'accessory': return <AccessoryCard {...p} cycle={card.cycle} depthMm={card.depthMm} redo={card.redo} />;
+    case 'remove': return <RemoveCard {...p} eventId={card.eventId} lengthMm={card.lengthMm} depthMm={card.depthMm} />;
+    case 'fill': return <FillCard {...p} radiographTaken={card.radiographTaken} needsRadiograph={card.needsRadiograph} />;
+    case 'sear': return <SearCard {...p} />;
+    case 'compact': return <CompactCard {...p} />;
+    case 'clean': return <CleanCard {...p} />;
+    case 'done': return <DoneCard {...p} onFinishTooth={onFinishTooth} />;
+  }
+}
+
+/** The selected canal: its current step card, the value just entered with its verdict, findings, diagram. */
+export function CanalStepper(props: { canal: CanalInfo; setting: Setting; caseId: string; events: LogEvent[]; onFinishTooth: () => void }) {
+  const { canal, setting, caseId, events } = props;
+  const rows = useChairside((s) => s.rows);
+  const server = useChairside((s) => s.server);
+  const finished = useChairside((s) => s.marks.finished[canal.canalId] ?? false);
+  const replaceSpreader = useChairside((s) => s.replaceSpreader[canal.canalId] ?? false);
+  const last = useChairside((s) => s.last);
+  const record = useChairside((s) => s.record);
+
+  useEffect(() => keepAwake(), [canal.canalId]);
+
+  const shown = useMemo(() => shownResult(rows, server, events, caseId, canal.canalId), [rows, server, events, caseId, canal.canalId]);
+  const findings = shown.result?.findings ?? [];
+  const state = shown.result?.state ?? null;
+  const card = nextCard(events, canal.canalId, {
+    setting,
+    cwlMm: canal.cwlMm,
+    complete: state?.complete ?? false,
+    findingCodes: findings.map((f) => f.code),
+    compactionFinished: finished,
+    replaceSpreader,
+  });
+  const cardProps: CardProps = {
+    canal,
+    setting,
+    state,
+    rec: async (type, data, label, value) => { await record(type, data, { canalId: canal.canalId, label, value }); },
+  };
+  const lastHere = last && last.canalId === canal.canalId ? last : null;
+  const verdict = lastHere ? findings.filter((f) => f.eventId === lastHere.eventId) : [];
+  const cardKey = `${card.kind}-${events.length}`;
+
+  return (
+    <div className="grid gap-4 landscape:grid-cols-[minmax(0,1fr)_300px] portrait:grid-cols-1">
+      <div data-testid="step" data-card={card.kind}>
+        <div key={cardKey}>{renderCard(card, cardProps, props.onFinishTooth, findings.some((f) => f.code === 'cone-fit-retake-needed'))}</div>
+        {lastHere && <JustEntered key={lastHere.eventId} label={lastHere.label} value={lastHere.value} findings={verdict} />}
+        <FindingList findings={findings} source={shown.source} />
+      </div>
+      <aside aria-label={`Diagram of canal ${canal.name}`} className="bg-white rounded-2xl border border-line p-3 portrait:max-w-md">
+        {state ? <CanalDiagram state={state} /> : <p className="text-muted">No diagram yet.</p>}
+      </aside>
+    </div>
+  );
+}

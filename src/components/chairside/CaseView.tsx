@@ -1,0 +1,61 @@
+import { useMemo, useState } from 'react';
+import { evaluateCanal, type LogEvent } from '../../lib/rules/index';
+import type { CanalInfo, CaseInfo } from '../../lib/client/events';
+import { useChairside } from '../../lib/client/store';
+import { CanalPicker } from './CanalPicker';
+import { CanalSetup } from './CanalSetup';
+import { CanalStepper } from './CanalStepper';
+import { CanalTabs } from './CanalTabs';
+import { Summary } from './Summary';
+
+/** One open case: canal tabs, and below them the canal stepper, the canal set-up or the finishing card. */
+export function CaseView(props: { info: CaseInfo; canals: CanalInfo[]; events: LogEvent[] }) {
+  const { info, canals, events } = props;
+  const canalId = useChairside((s) => s.canalId);
+  const selectCanal = useChairside((s) => s.selectCanal);
+  const [view, setView] = useState<'canal' | 'add' | 'finish'>(canals.length === 0 ? 'add' : 'canal');
+  const [queue, setQueue] = useState<string[]>([]);
+  const [firstNew, setFirstNew] = useState<string | null>(null);
+
+  const statuses = useMemo(
+    () => Object.fromEntries(canals.map((c) => [c.canalId, evaluateCanal(c.canalId, events)?.state.status])),
+    [canals, events],
+  );
+  const selected = canals.find((c) => c.canalId === canalId) ?? canals[0] ?? null;
+  const showAdd = view === 'add' || canals.length === 0;
+
+  let body;
+  if (showAdd && queue.length > 0) {
+    body = (
+      <CanalSetup key={queue[0]} name={queue[0]!} caseId={info.caseId} setting={info.setting} tooth={info.tooth} remaining={queue.length - 1}
+        onCancel={() => setQueue([])}
+        onDone={(id) => {
+          const rest = queue.slice(1);
+          const first = firstNew ?? id;
+          setQueue(rest);
+          setFirstNew(rest.length ? first : null);
+          if (rest.length === 0) { selectCanal(first); setView('canal'); }
+        }} />
+    );
+  } else if (showAdd) {
+    body = (
+      <CanalPicker tooth={info.setting === 'block' ? undefined : info.tooth} existing={canals.map((c) => c.name)}
+        onPick={(names) => { setQueue(names); setFirstNew(null); }}
+        onCancel={canals.length ? () => setView('canal') : undefined} />
+    );
+  } else if (view === 'finish') {
+    body = <Summary info={info} canals={canals} events={events} />;
+  } else if (selected) {
+    body = <CanalStepper key={selected.canalId} canal={selected} setting={info.setting} caseId={info.caseId} events={events} onFinishTooth={() => setView('finish')} />;
+  }
+
+  return (
+    <div className="-m-3">
+      <CanalTabs canals={canals} statuses={statuses} selected={selected?.canalId ?? null} view={showAdd ? 'add' : view}
+        onSelect={(id) => { selectCanal(id); setView('canal'); }}
+        onAdd={() => { setQueue([]); setView('add'); }}
+        onFinish={() => setView('finish')} />
+      <div className="p-3">{body}</div>
+    </div>
+  );
+}

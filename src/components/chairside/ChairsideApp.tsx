@@ -1,0 +1,77 @@
+import { useEffect, useMemo, useState } from 'react';
+import { SAFETY_LINE } from '../../lib/rules/index';
+import { canalsIn, casesIn } from '../../lib/client/events';
+import { registerServiceWorker } from '../../lib/client/pwa';
+import { useChairside } from '../../lib/client/store';
+import { caseEvents } from '../../lib/client/views';
+import { StepCard } from './AnswerButtons';
+import { CaseList } from './CaseList';
+import { CaseView } from './CaseView';
+import { OpenCase } from './OpenCase';
+import { RejectedList } from './RejectedList';
+import { SignOutDialog } from './SignOutDialog';
+import { TopBar } from './TopBar';
+import { UndoStrip } from './UndoStrip';
+
+/** The chairside island: who is working, which case, and the canal stepper. */
+export default function ChairsideApp() {
+  const phase = useChairside((s) => s.phase);
+  const identity = useChairside((s) => s.identity);
+  const rows = useChairside((s) => s.rows);
+  const caseId = useChairside((s) => s.caseId);
+  const error = useChairside((s) => s.error);
+  const openCase = useChairside((s) => s.openCase);
+  const [creating, setCreating] = useState(false);
+  const [signingOut, setSigningOut] = useState(false);
+  const [update, setUpdate] = useState<null | (() => void)>(null);
+
+  useEffect(() => {
+    void useChairside.getState().init();
+    registerServiceWorker((accept) => setUpdate(() => accept));
+  }, []);
+
+  const events = useMemo(() => caseEvents(rows, caseId), [rows, caseId]);
+  const info = useMemo(() => casesIn(events).find((c) => c.caseId === caseId) ?? null, [events, caseId]);
+  const canals = useMemo(() => (caseId ? canalsIn(events, caseId) : []), [events, caseId]);
+
+  let body;
+  if (phase === 'loading') body = <p className="text-lg">Opening the log on this tablet…</p>;
+  else if (!identity.user) {
+    body = (
+      <StepCard title={identity.signedOut ? 'Sign in to record' : 'Sign in first'}
+        hint={identity.signedOut ? 'Nobody is signed in on this tablet.' : 'Sign in once while online; after that the tablet works offline as you.'}>
+        <a href="/signin?callbackUrl=/chairside" className="inline-flex items-center min-h-16 px-5 rounded-xl border-2 border-gutta-strong bg-gutta-strong text-white text-xl font-bold">Sign in</a>
+      </StepCard>
+    );
+  } else if (identity.user.role !== 'student') {
+    body = <StepCard title="Chairside is for students" hint="Attendings and directors review cases on the desktop pages."><a className="underline text-lg" href="/">Home</a></StepCard>;
+  } else if (creating && !caseId) body = <OpenCase onCancel={() => setCreating(false)} />;
+  else if (!caseId || !info) body = <CaseList onNew={() => setCreating(true)} />;
+  else body = <CaseView key={caseId} info={info} canals={canals} events={events} />;
+
+  return (
+    <div className="min-h-screen flex flex-col">
+      <TopBar info={info} onCases={() => { setCreating(false); openCase(null); }} onSignOut={() => setSigningOut(true)} />
+      {update && (
+        <div className="bg-note text-white px-4 py-2 flex items-center gap-4" role="status">
+          <p className="text-lg">A new version of Coneline is ready.</p>
+          <button type="button" onClick={update} className="min-h-14 min-w-14 px-4 rounded-lg border-2 border-white font-bold">Reload</button>
+        </div>
+      )}
+      {identity.signedOut && identity.user && (
+        <p className="bg-white border-b-2 border-stop px-4 py-2 text-lg" role="alert">
+          Your session has ended: what you record stays on this tablet. <a className="underline font-bold" href="/signin?callbackUrl=/chairside">Sign in again</a> to send it.
+        </p>
+      )}
+      <main id="main" className="flex-1 pb-28">
+        {error && <p role="alert" className="mx-3 mt-3 p-3 border-2 border-stop bg-white text-stop font-bold">{error}</p>}
+        <div className="p-3">{body}</div>
+        <RejectedList caseId={caseId} />
+        <p className="mx-3 text-base text-muted border-l-4 border-line pl-3" data-testid="safety-line">{SAFETY_LINE}</p>
+      </main>
+      {signingOut && <SignOutDialog onClose={() => setSigningOut(false)} />}
+      <UndoStrip />
+    </div>
+  );
+}
+

@@ -1,0 +1,21 @@
+import type { CanalState, LogEvent } from '../../lib/rules/index';
+import type { CanalInfo, Setting } from '../../lib/client/events';
+
+/** What every step card gets: the canal, its state, and a way to record an answer. */
+export interface CardProps {
+  canal: CanalInfo;
+  setting: Setting;
+  state: CanalState | null;
+  /** Record one event for this canal; `value` is shown big after the tap. */
+  rec: (type: LogEvent['type'], data: object, label: string, value?: string) => Promise<void>;
+}
+
+/** Sizes offered around a given ISO size (two below, two above), for cone chips. */
+export function sizesAround(size: string, iso: readonly string[]): string[] {
+  const i = iso.indexOf(size);
+  if (i < 0) return iso.slice(3, 9);
+  return iso.slice(Math.max(0, i - 2), i + 3);
+}
+
+/** Spreader and accessory cone designations offered first (chairside-flow.md). */
+export const CONE_DESIGNATIONS = ['FF', 'MF', 'F', 'M'] as const;

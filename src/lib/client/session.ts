@@ -1,0 +1,59 @@
+import { fetchMe, type Me } from './api';
+import { newDeviceId } from './ids';
+import { clearUserIfSynced, delMeta, getMeta, setMeta } from './outbox';
+
+/** Who the island works as, and how it knows. */
+export interface Identity {
+  user: Me | null;
+  /** `server`: /api/me answered; `tablet`: offline, the last user kept on this tablet. */
+  source: 'server' | 'tablet' | null;
+  /** The server answered 401: nobody is signed in. */
+  signedOut: boolean;
+}
+
+const LAST_USER = 'lastUser';
+
+/** This browser's own device id, made once. */
+export async function deviceId(): Promise<string> {
+  const known = await getMeta<string>('deviceId');
+  if (known) return known;
+  const id = newDeviceId();
+  await setMeta('deviceId', id);
+  return id;
+}
+
+/**
+ * Ask the server who is signed in; offline, go on as the last user this tablet saw.
+ * A tablet is shared: when someone else (or nobody) is signed in, the previous user's data
+ * is cleared if all of it reached the server, and kept untouched otherwise.
+ */
+export async function resolveIdentity(): Promise<Identity> {
+  const last = await getMeta<Me>(LAST_USER);
+  const me = await fetchMe();
+  if (me.kind === 'ok') {
+    const { id, name, role } = me.value;
+    if (last && last.id !== id) await clearUserIfSynced(last.id);
+    await setMeta(LAST_USER, { id, name, role } satisfies Me);
+    return { user: { id, name, role }, source: 'server', signedOut: false };
+  }
+  if (me.kind === 'status' && me.status === 401) {
+    if (last) await clearUserIfSynced(last.id);
+    // Offline later, nobody should record under a user who has signed out.
+    await delMeta(LAST_USER);
+    return { user: null, source: null, signedOut: true };
+  }
+  return last ? { user: last, source: 'tablet', signedOut: false } : { user: null, source: null, signedOut: false };
+}
+
+/**
+ * Prepare to sign out: forget the user as "the one working offline" and clear their data
+ * when nothing is left to send. Returns the number of unsent events kept on the tablet.
+ */
+export async function leave(userId: number, unsent: number): Promise<number> {
+  await delMeta(LAST_USER);
+  if (unsent === 0) {
+    const cleared = await clearUserIfSynced(userId);
+    if (!cleared) return 1;
+  }
+  return unsent;
+}

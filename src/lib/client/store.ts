@@ -1,0 +1,232 @@
+import { create } from 'zustand';
+import { parseEvent, type LogEvent } from '../rules/index';
+import { fetchCase } from './api';
+import { newId } from './ids';
+import {
+  dismissRejected, getMeta, importSynced, listEvents, listServerCanals, putEvent, putServerCanals, setMeta,
+  type ServerCanal, type StoredEvent,
+} from './outbox';
+import { deviceId as loadDeviceId, leave, resolveIdentity, type Identity } from './session';
+import { SyncLoop, type SyncStatus } from './syncLoop';
+
+/** What the undo strip offers to withdraw: a recorded event, or a tablet-only mark. */
+export interface UndoItem { key: number; label: string; eventId?: string; canalId?: string; finishedCanal?: string }
+/** The value just entered, shown big beside its verdict. */
+export interface LastEntry { eventId: string; canalId?: string; label: string; value: string }
+
+export interface RecordOptions { canalId?: string; label: string; value?: string; caseId?: string }
+
+interface Marks { finished: Record<string, boolean> }
+
+export interface ChairsideState {
+  phase: 'loading' | 'ready';
+  identity: Identity;
+  deviceId: string;
+  rows: StoredEvent[];
+  server: Record<string, ServerCanal>;
+  caseId: string | null;
+  canalId: string | null;
+  marks: Marks;
+  replaceSpreader: Record<string, boolean>;
+  undo: UndoItem | null;
+  last: LastEntry | null;
+  error: string | null;
+  sync: SyncStatus;
+  showUniversal: boolean;
+  /** Bumped after each durable save (tests and the benchmark watch it). */
+  saved: number;
+
+  init(): Promise<void>;
+  reload(): Promise<void>;
+  record(type: LogEvent['type'], data: object, opts: RecordOptions): Promise<LogEvent | null>;
+  undoLast(): Promise<void>;
+  clearUndo(): void;
+  openCase(caseId: string | null, canalId?: string | null): void;
+  selectCanal(canalId: string | null): void;
+  setFinished(canalId: string, finished: boolean): void;
+  setReplaceSpreader(canalId: string, on: boolean): void;
+  toggleUniversal(): void;
+  syncNow(): Promise<void>;
+  restoreCase(caseId: string): Promise<boolean>;
+  dismiss(eventId: string): Promise<void>;
+  /** Try a last sync, then count what is still unsent. */
+  unsentBeforeSignOut(): Promise<number>;
+  /** Forget this user on the tablet (clearing their data if all of it was sent). */
+  leaveTablet(): Promise<void>;
+}
+
+let loop: SyncLoop | null = null;
+let kickTimer: ReturnType<typeof setTimeout> | null = null;
+let undoKey = 0;
+
+export const useChairside = create<ChairsideState>((set, get) => {
+  const uid = () => get().identity.user?.id ?? null;
+  const remember = () => {
+    const id = uid();
+    if (id !== null) void setMeta([id, 'current'], { caseId: get().caseId, canalId: get().canalId });
+  };
+  const kickSoon = () => {
+    if (kickTimer) clearTimeout(kickTimer);
+    kickTimer = setTimeout(() => { void loop?.kick(false); }, 600);
+  };
+
+  return {
+    phase: 'loading',
+    identity: { user: null, source: null, signedOut: false },
+    deviceId: '',
+    rows: [],
+    server: {},
+    caseId: null,
+    canalId: null,
+    marks: { finished: {} },
+    replaceSpreader: {},
+    undo: null,
+    last: null,
+    error: null,
+    sync: { phase: 'idle' },
+    showUniversal: false,
+    saved: 0,
+
+    async init() {
+      const [dev, identity] = await Promise.all([loadDeviceId(), resolveIdentity()]);
+      set({ deviceId: dev, identity });
+      const id = identity.user?.id;
+      if (id !== undefined) {
+        const current = await getMeta<{ caseId: string | null; canalId: string | null }>([id, 'current']);
+        const marks = (await getMeta<Marks>([id, 'marks'])) ?? { finished: {} };
+        set({ caseId: current?.caseId ?? null, canalId: current?.canalId ?? null, marks });
+        await get().reload();
+      }
+      set({ phase: 'ready' });
+      if (!loop && id !== undefined) {
+        loop = new SyncLoop({
+          deviceId: dev,
+          userId: uid,
+          onStatus: (s) => set({ sync: { ...s } }),
+          onOutcome: (o) => {
+            if (o.kind === 'signed-out') set({ identity: { ...get().identity, signedOut: true } });
+            void get().reload();
+          },
+        });
+        loop.start();
+      }
+    },
+
+    async reload() {
+      const id = uid();
+      if (id === null) return;
+      const [rows, server] = await Promise.all([listEvents(id), listServerCanals(id)]);
+      set({ rows, server: Object.fromEntries(server.map((s) => [s.result.canalId, s])) });
+    },
+
+    async record(type, data, opts) {
+      const id = uid();
+      const caseId = opts.caseId ?? get().caseId;
+      if (id === null || !caseId) return null;
+      const raw = { id: newId(), caseId, ...(opts.canalId ? { canalId: opts.canalId } : {}), type, at: new Date().toISOString(), data };
+      const parsed = parseEvent(raw);
+      if (!parsed.ok) {
+        set({ error: `Not saved: ${parsed.error}` });
+        return null;
+      }
+      const event = parsed.event;
+      try {
+        const row = await putEvent(id, event);
+        set((s) => ({
+          rows: [...s.rows, row],
+          error: null,
+          saved: s.saved + 1,
+          undo: type === 'event.voided' ? null : { key: ++undoKey, label: opts.label, eventId: event.id, canalId: opts.canalId },
+          last: opts.value ? { eventId: event.id, canalId: opts.canalId, label: opts.label, value: opts.value } : s.last,
+        }));
+      } catch (e) {
+        set({ error: `Not saved on this tablet: ${e instanceof Error ? e.message : String(e)}` });
+        return null;
+      }
+      if (navigator.onLine) kickSoon();
+      return event;
+    },
+
+    async undoLast() {
+      const u = get().undo;
+      if (!u) return;
+      set({ undo: null });
+      if (u.finishedCanal) { get().setFinished(u.finishedCanal, false); set({ undo: null }); return; }
+      if (!u.eventId) return;
+      const target = get().rows.find((r) => r.event.id === u.eventId)?.event;
+      if (!target) return;
+      await get().record('event.voided', { eventId: u.eventId, reason: 'Undone on the tablet' }, {
+        caseId: target.caseId, canalId: target.canalId, label: `Undone: ${u.label}`,
+      });
+      if (get().last?.eventId === u.eventId) set({ last: null });
+    },
+
+    clearUndo: () => set({ undo: null }),
+
+    openCase(caseId, canalId = null) {
+      set({ caseId, canalId, last: null, undo: null });
+      remember();
+    },
+
+    selectCanal(canalId) {
+      set({ canalId, last: null });
+      remember();
+    },
+
+    setFinished(canalId, finished) {
+      const marks = { finished: { ...get().marks.finished, [canalId]: finished } };
+      set({
+        marks,
+        undo: finished ? { key: ++undoKey, label: 'compaction finished', finishedCanal: canalId } : get().undo,
+      });
+      const id = uid();
+      if (id !== null) void setMeta([id, 'marks'], marks);
+    },
+
+    setReplaceSpreader(canalId, on) {
+      set({ replaceSpreader: { ...get().replaceSpreader, [canalId]: on } });
+    },
+
+    toggleUniversal: () => set({ showUniversal: !get().showUniversal }),
+
+    async syncNow() {
+      await loop?.kick(true);
+    },
+
+    async restoreCase(caseId) {
+      const id = uid();
+      if (id === null) return false;
+      const answer = await fetchCase(caseId);
+      if (answer.kind !== 'ok') {
+        set({ error: answer.kind === 'offline' ? 'No network: the case cannot be fetched now.' : `The server answered ${answer.status}.` });
+        return false;
+      }
+      await importSynced(id, answer.value.events);
+      if (answer.value.canals.length) await putServerCanals(id, answer.value.canals);
+      await get().reload();
+      get().openCase(caseId);
+      return true;
+    },
+
+    async dismiss(eventId) {
+      const id = uid();
+      if (id === null) return;
+      await dismissRejected(id, eventId);
+      await get().reload();
+    },
+
+    async unsentBeforeSignOut() {
+      if (uid() === null) return 0;
+      if (navigator.onLine) await loop?.kick(true);
+      await get().reload();
+      return get().rows.filter((r) => r.state === 'queued').length;
+    },
+
+    async leaveTablet() {
+      const id = uid();
+      if (id === null) return;
+      loop?.stop();
+      await leave(id, get().rows.filter((r) => r.state === 'queued').length);
+    },
+  };
+});
