@@ -1,0 +1,78 @@
+/** Starts the built server (dist/server/entry.mjs) on a free port in a temporary folder, for tests and benchmarks. */
+import { spawn, type ChildProcess } from 'node:child_process';
+import { copyFileSync, existsSync, mkdtempSync, rmSync } from 'node:fs';
+import { createServer } from 'node:net';
+import { tmpdir } from 'node:os';
+import { join, resolve } from 'node:path';
+
+const ROOT = resolve(import.meta.dirname, '../..');
+const ENTRY = resolve(ROOT, 'dist/server/entry.mjs');
+
+export interface TestServer {
+  baseUrl: string;
+  dbFile: string;
+  dir: string;
+  /** Everything the server printed, for tests that look at its logs. */
+  output(): string;
+  stop(): Promise<void>;
+}
+
+export function freePort(): Promise<number> {
+  return new Promise((resolvePort, reject) => {
+    const srv = createServer();
+    srv.once('error', reject);
+    srv.listen(0, '127.0.0.1', () => {
+      const port = (srv.address() as { port: number }).port;
+      srv.close(() => resolvePort(port));
+    });
+  });
+}
+
+/** Starts the server on a copy of `templateDb` (a migrated database), or on an empty file. */
+export async function startServer(opts: { templateDb?: string; env?: Record<string, string> } = {}): Promise<TestServer> {
+  const dir = mkdtempSync(join(tmpdir(), 'coneline-test-'));
+  const dbFile = join(dir, 'coneline.sqlite');
+  if (opts.templateDb) {
+    if (!existsSync(opts.templateDb)) throw new Error(`the template database ${opts.templateDb} is missing`);
+    copyFileSync(opts.templateDb, dbFile);
+  }
+  const port = await freePort();
+  let log = '';
+  const child: ChildProcess = spawn(process.execPath, [ENTRY], {
+    cwd: ROOT,
+    env: {
+      ...process.env, HOST: '127.0.0.1', PORT: String(port), DB_FILE: dbFile, DATA_DIR: dir,
+      AUTH_SECRET: 'local-run-secret-local-run-secret-0123456789', ...opts.env,
+    },
+    stdio: ['ignore', 'pipe', 'pipe'],
+  });
+  child.stdout?.on('data', (d: Buffer) => (log += d.toString()));
+  child.stderr?.on('data', (d: Buffer) => (log += d.toString()));
+  const baseUrl = `http://127.0.0.1:${port}`;
+  const deadline = Date.now() + 20_000;
+  for (;;) {
+    if (child.exitCode !== null) throw new Error(`server exited early:\n${log}`);
+    try {
+      const res = await fetch(`${baseUrl}/signin`);
+      if (res.status === 200) break;
+    } catch {
+      // not listening yet
+    }
+    if (Date.now() > deadline) throw new Error(`server did not start:\n${log}`);
+    await new Promise((r) => setTimeout(r, 100));
+  }
+  return {
+    baseUrl,
+    dbFile,
+    dir,
+    output: () => log,
+    async stop() {
+      if (child.exitCode === null) {
+        const exited = new Promise((r) => child.once('exit', r));
+        child.kill('SIGTERM');
+        await exited;
+      }
+      rmSync(dir, { recursive: true, force: true });
+    },
+  };
+}
