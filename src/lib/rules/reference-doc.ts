@@ -1,0 +1,66 @@
+// Renders docs/rules.md from the catalogue, so the reference page cannot drift from the code.
+// scripts/gen-rules-doc.ts writes it; a test regenerates it and compares.
+import { FINDINGS, FINDING_CODES, SAFETY_LINE } from './findings';
+import { DEFAULT_TOLERANCES, TOLERANCE_SOURCES, type Tolerances } from './tolerances';
+
+/** How this module reads the places where rules.md leaves room; each is also commented in the code. */
+export const READINGS: readonly string[] = [
+  'Where a set-up event (`case.opened`, `canal.added`) is recorded twice and neither is voided, the latest counts; the case is the one the earliest `canal.added` of the canal names.',
+  'A void counts only for an event of its own scope (the same canal, or both case-level); `event.voided` may therefore be case-level. A void that is itself the target of any void voids nothing (one level, so the order voids are read never matters).',
+  'When the master cone is seated more than once, the latest seating is the one judged by the seat, taper, rinse and radiograph checks and by `first-spreader-short`; `compaction-before-seat` looks before the first seating.',
+  'Before any seating, the latest taper check is judged at once (`taper-short`), so the tablet can answer at the tap. A taper check deeper than the CWL raises nothing: the taper check is not a spreader placement.',
+  '`taper-not-checked` counts only a taper check recorded before the seating (the latest one before seating is the one that counts); `maf-radiograph-missing` counts an MAF radiograph recorded anywhere.',
+  '`master-size-mismatch` and `master-length-mismatch` judge the latest fit: a refit replaces the cone. `cone-fit-retake-needed` compares the latest refit after the last cone-fit radiograph with the fit that radiograph showed; a cone-fit radiograph counts only once it follows a fit.',
+  'Withdrawn accessory cones are not judged by any per-cone check (they are no longer in the canal). The cycle of the first cone opens at the latest seating before it, so a spreader placed before seating does not count for it.',
+  '`compaction-incomplete` is raised at sear-off also when no spreader placement was recorded at all. On a training block with no recorded orifice depth the orifice is its top (0), not an estimate.',
+  '`few-accessory-cones` counts the kept cones placed before the latest sear-off; `fill-check-radiograph-missing` wants a fill-check radiograph after the last kept cone (any, when there is none).',
+  'The fill categories are fixed by the contract at 2 mm: `fill-short` is raised for "short-over-2" while `fillShortLimitMm` is 2 or less, and not when a director raises the limit (the category cannot show the fill passed a larger limit).',
+  '`sear-above-cej` is raised for any level above the CEJ, at the orifice or not; `restoration-missing` applies to training blocks too (rules.md does not mark it "tooth").',
+  'Sizes: a number is read as the ISO size it names (35 → "35", 6 → "06"); a string must be written as the contract writes it ("06", not "6"; designations in capitals). All size fields accept designations, as the input errors allow, though a file (`mafSize`, `fileSize`) is in practice an ISO size.',
+  'Free text is trimmed; `name`, `referencePoint`, `text` and `agent` must not be empty; `reason` must be present but may be empty. `chartRef` (≤ 64) and `agent` (≤ 60) are not among the contract\'s free-text fields and take our own limits. A tooth on a training block is allowed and ignored by the rules.',
+  'Status is the furthest step any event reaches: set-up (canal.added) → verified (seat or taper check, rinse, drying, working-length or MAF radiograph) → cone fitted (master cone fit or cone-fit radiograph) → compacting (seating, spreader, accessory cone) → filled (fill assessment or fill-check radiograph) → seared (sear-off, vertical compaction, chamber cleaned) → restored → submitted.',
+];
+
+const cell = (s: string) => s.replace(/\|/g, '\\|').replace(/\n/g, ' ');
+
+function formatDefault(key: keyof Tolerances): string {
+  const v = DEFAULT_TOLERANCES[key];
+  return key.endsWith('Mm') ? `${v.toFixed(1)} mm` : String(v);
+}
+
+/** The reference page as Markdown. */
+export function renderRulesDoc(): string {
+  const lines = [
+    '# Coneline — rules reference',
+    '',
+    '<!-- Generated from src/lib/rules by `npx tsx scripts/gen-rules-doc.ts`; do not edit by hand. tests/lib/rules/reference-doc.test.ts fails when this file and the code disagree. -->',
+    '',
+    `> ${SAFETY_LINE}`,
+    '',
+    'Severity: **stop** must be put right before the canal can be signed off; **caution** the attending must see; **note** is information. "Tooth:" marks checks that do not apply to a training block. Source labels (seen, partly, memory, practice) are those of `references.md`.',
+    '',
+    '## Findings',
+    '',
+    '| code | severity | raised when | default | source |',
+    '| --- | --- | --- | --- | --- |',
+    ...FINDING_CODES.map((code) => {
+      const f = FINDINGS[code];
+      const def = f.tolerance === undefined ? '—' : `${formatDefault(f.tolerance)} (\`${f.tolerance}\`)`;
+      return `| \`${code}\` | ${f.severity} | ${cell(f.raisedWhen)} | ${def} | ${cell(f.source)} |`;
+    }),
+    '',
+    '## Tolerances',
+    '',
+    'A course director may change these; a value that is not a finite, non-negative number falls back to its default.',
+    '',
+    '| setting | default | source |',
+    '| --- | --- | --- |',
+    ...(Object.keys(DEFAULT_TOLERANCES) as (keyof Tolerances)[]).map((k) => `| \`${k}\` | ${formatDefault(k)} | ${cell(TOLERANCE_SOURCES[k])} |`),
+    '',
+    '## How this module reads rules.md',
+    '',
+    ...READINGS.map((r) => `- ${r}`),
+    '',
+  ];
+  return lines.join('\n');
+}
