@@ -15,6 +15,15 @@ const RUNS = { seed: SEED, numRuns: 300 };
 const withShuffle = <T>(arb: fc.Arbitrary<T & { events: LogEvent[] }>) =>
   arb.chain((c) => fc.shuffledSubarray(c.events, { minLength: c.events.length, maxLength: c.events.length }).map((shuffled) => ({ c, shuffled })));
 
+describe('the generators', () => {
+  it('make only events that parseEvent accepts unchanged', () => {
+    const arb = fc.oneof(textbookCanal.map((t) => t.events), messyCase(true).map((m) => m.events));
+    fc.assert(fc.property(arb, (events) => {
+      for (const e of events) expect(parseEvent(e, NOW)).toEqual({ ok: true, event: e });
+    }), { seed: SEED, numRuns: 60 });
+  });
+});
+
 describe('evaluateCanal properties', () => {
   it('gives the same result whatever order the events arrive in (textbook canals)', () => {
     fc.assert(fc.property(withShuffle(textbookCanal), ({ c, shuffled }) => {

@@ -1,0 +1,77 @@
+import { existsSync, readdirSync, readFileSync } from 'node:fs';
+import { describe, expect, it } from 'vitest';
+import { DEFAULT_TOLERANCES, FINDINGS, FINDING_CODES } from '../../../src/lib/rules';
+import { renderRulesDoc } from '../../../src/lib/rules/reference-doc';
+
+const docPath = new URL('../../../docs/rules.md', import.meta.url);
+const rulesMd = new URL('../../../../shared/product/rules.md', import.meta.url);
+
+describe('renderRulesDoc', () => {
+  it('matches docs/rules.md (run `npx tsx scripts/gen-rules-doc.ts` after changing a finding)', () => {
+    expect(readFileSync(docPath, 'utf8')).toBe(renderRulesDoc());
+  });
+  it('lists every code with its severity and, where it has one, its default', () => {
+    const doc = renderRulesDoc();
+    for (const code of FINDING_CODES) {
+      const row = doc.split('\n').find((l) => l.startsWith(`| \`${code}\` |`));
+      expect(row, code).toBeDefined();
+      expect(row).toContain(`| ${FINDINGS[code].severity} |`);
+      const tol = FINDINGS[code].tolerance;
+      if (tol !== undefined) expect(row).toContain(`\`${tol}\``);
+    }
+  });
+});
+
+describe('FINDINGS', () => {
+  // The product spec lives beside the repository, not in it: checked where it is present.
+  it.skipIf(!existsSync(rulesMd))('holds exactly the codes and severities of rules.md’s table, in its order', () => {
+    const table = readFileSync(rulesMd, 'utf8');
+    const rows = [...table.matchAll(/^\| `([a-z-]+)` \| (stop|caution|note) \|/gm)].map((m) => [m[1], m[2]]);
+    expect(rows).toHaveLength(27);
+    expect(FINDING_CODES.map((c) => [c, FINDINGS[c].severity])).toEqual(rows);
+  });
+  it('has 27 codes, each with a title, a trigger and a source', () => {
+    expect(FINDING_CODES).toHaveLength(27);
+    for (const c of FINDING_CODES) {
+      expect(FINDINGS[c].title.length, c).toBeGreaterThan(0);
+      expect(FINDINGS[c].raisedWhen.length, c).toBeGreaterThan(0);
+      expect(FINDINGS[c].source.length, c).toBeGreaterThan(0);
+    }
+  });
+});
+
+describe('DEFAULT_TOLERANCES', () => {
+  it('holds rules.md’s defaults: 4, 1.0, 0.5, 1.0, 2.0, 0.5, 3, 12, 2', () => {
+    expect(DEFAULT_TOLERANCES).toEqual({
+      cwlUnusualMarginMm: 4, taperShortMarginMm: 1, masterLengthMarginMm: 0.5, coneFitRetakeThresholdMm: 1,
+      firstSpreaderMarginMm: 2, accessoryLengthMarginMm: 0.5, minAccessoryCones: 3, fallbackStopDepthMm: 12, fillShortLimitMm: 2,
+    });
+  });
+});
+
+describe('the rules module', () => {
+  const dir = new URL('../../../src/lib/rules/', import.meta.url);
+  const files = readdirSync(dir).filter((f) => f.endsWith('.ts'));
+  it('imports only its own files and zod', () => {
+    for (const f of files) {
+      const src = readFileSync(new URL(f, dir), 'utf8');
+      for (const m of src.matchAll(/^\s*(?:import|export)\s[^'"]*?from\s+['"]([^'"]+)['"]/gm)) {
+        expect(m[1] === 'zod' || m[1]?.startsWith('./'), `${f} imports ${m[1]}`).toBe(true);
+      }
+    }
+  });
+  it('uses no Node-only globals, so it runs unchanged in the browser', () => {
+    for (const f of files) {
+      const src = readFileSync(new URL(f, dir), 'utf8').replace(/\/\/.*$/gm, '');
+      expect(src, f).not.toMatch(/\b(process|Buffer|require|__dirname|global)\b|node:/);
+    }
+  });
+  it('bundles for the browser with zod as its only dependency', async () => {
+    const { build } = await import('esbuild');
+    const out = await build({
+      entryPoints: [new URL('index.ts', dir).pathname], bundle: true, platform: 'browser', format: 'esm', write: false, metafile: true, logLevel: 'silent',
+    });
+    const inputs = Object.keys(out.metafile.inputs);
+    expect(inputs.filter((p) => !p.includes('src/lib/rules/') && !p.includes('node_modules/zod/'))).toEqual([]);
+  });
+});
