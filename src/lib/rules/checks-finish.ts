@@ -16,6 +16,8 @@ function searChecks(v: CanalView): Finding[] {
   const estimate = v.thirds.estimated
     ? ` (No orifice depth was recorded, so the thirds are estimated: the coronal third is taken to end at ${fmtMm(v.thirds.coronalEndMm)}, from the ${fmtMm(v.tol.fallbackStopDepthMm)} rule of thumb.)`
     : '';
+  // No spreader placement at all: compaction never started, so it is not complete either
+  // (rules.md speaks only of "the last spreader depth"; this is our reading).
   if (last === undefined) {
     out.push(raise('compaction-incomplete', `Sear-off is recorded with no spreader placement before it: tell your attending; compaction goes on until the spreader no longer passes the coronal third.${estimate}`, sear.e.id));
   } else if (gt(last.e.data.depthMm, v.thirds.coronalEndMm)) {
@@ -70,6 +72,7 @@ function submissionChecks(v: CanalView): Finding[] {
   if (submitted === undefined) return [];
   const out: Finding[] = [];
   // From everything recorded: a restoration or radiograph recorded after submission counts.
+  // restoration-missing is not marked "tooth" in rules.md, so it applies to a training block too.
   if (v.of('access.restored').length === 0) {
     out.push(raise('restoration-missing', "The case was submitted but this canal's access is not restored: record the restoration, or tell your attending.", submitted.e.id));
   }

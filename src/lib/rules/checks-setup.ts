@@ -40,6 +40,7 @@ function seatChecks(v: CanalView): Finding[] {
     if (taper === undefined) {
       out.push(raise('taper-not-checked', 'You seated the master cone with no taper check before it: tell your attending, and check the taper with the spreader first next time.', seat.e.id));
     }
+    // "With no MAF radiograph": one recorded anywhere counts, even if tapped after seating.
     if (v.isTooth && v.of('radiograph.taken').every((r) => r.e.data.purpose !== 'maf')) {
       out.push(raise('maf-radiograph-missing', 'No MAF radiograph is recorded: record it if you took one, or tell your attending.', seat.e.id));
     }

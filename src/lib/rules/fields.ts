@@ -17,8 +17,7 @@ function field<T>(name: string, check: Check<T>) {
 }
 
 /** An optional field: absent or null means "not given". */
-function optionalField<T>(name: string, check: Check<T>) {
-  void name;
+function optionalField<T>(check: Check<T>) {
   return z.unknown().transform((v, ctx): T | undefined => {
     if (v === undefined || v === null) return undefined;
     return run(v, ctx, check);
@@ -53,14 +52,14 @@ function mmCheck(name: string, min: number, max: number): Check<number> {
 /** A length from the reference point (cwlMm, lengthMm, depthMm, measuredMm): 0.5–40 mm in 0.5 mm steps. */
 export const lengthMm = (name: string) => field(name, mmCheck(name, 0.5, 40));
 /** orificeDepthMm: 0–20 mm in 0.5 mm steps. */
-export const optionalOrificeMm = (name: string) => optionalField(name, mmCheck(name, 0, 20));
+export const optionalOrificeMm = (name: string) => optionalField(mmCheck(name, 0, 20));
 /** relativeToCejMm: −5 to +5 mm in 0.5 mm steps (negative = above the CEJ). */
-export const optionalCejMm = (name: string) => optionalField(name, mmCheck(name, -5, 5));
+export const optionalCejMm = (name: string) => optionalField(mmCheck(name, -5, 5));
 
 const sizeCheck = (name: string): Check<string> => (v, no) =>
   normaliseSize(v) ?? no(`${name} must be ${SIZE_RULE_TEXT}`);
 export const size = (name: string) => field(name, sizeCheck(name));
-export const optionalSize = (name: string) => optionalField(name, sizeCheck(name));
+export const optionalSize = (name: string) => optionalField(sizeCheck(name));
 
 export function oneOf<const T extends readonly string[]>(name: string, values: T) {
   return field(name, (v, no): T[number] =>
@@ -68,14 +67,14 @@ export function oneOf<const T extends readonly string[]>(name: string, values: T
   );
 }
 export function optionalOneOf<const T extends readonly string[]>(name: string, values: T) {
-  return optionalField(name, (v, no): T[number] =>
+  return optionalField((v, no): T[number] =>
     typeof v === 'string' && (values as readonly string[]).includes(v) ? (v as T[number]) : no(`${name} must be one of ${values.join(', ')}`),
   );
 }
 
 const boolCheck = (name: string): Check<boolean> => (v, no) => (typeof v === 'boolean' ? v : no(`${name} must be true or false`));
 export const bool = (name: string) => field(name, boolCheck(name));
-export const optionalBool = (name: string) => optionalField(name, boolCheck(name));
+export const optionalBool = (name: string) => optionalField(boolCheck(name));
 
 const textCheck = (name: string, max: number, allowEmpty: boolean): Check<string> => (v, no) => {
   if (typeof v !== 'string') return no(`${name} must be text`);
@@ -88,18 +87,18 @@ const textCheck = (name: string, max: number, allowEmpty: boolean): Check<string
 export const text = (name: string, max: number) => field(name, textCheck(name, max, false));
 /** Free text that must be present but may be empty (a reason the tablet may leave blank). */
 export const textMayBeEmpty = (name: string, max: number) => field(name, textCheck(name, max, true));
-export const optionalText = (name: string, max: number) => optionalField(name, textCheck(name, max, true));
+export const optionalText = (name: string, max: number) => optionalField(textCheck(name, max, true));
 
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 const uuidCheck = (name: string): Check<string> => (v, no) =>
   typeof v === 'string' && UUID.test(v) ? v.toLowerCase() : no(`${name} must be a UUID`);
 /** A UUID, lower-cased (UUIDs are case-insensitive; one spelling keeps duplicates recognisable). */
 export const uuid = (name: string) => field(name, uuidCheck(name));
-export const optionalUuid = (name: string) => optionalField(name, uuidCheck(name));
+export const optionalUuid = (name: string) => optionalField(uuidCheck(name));
 
 export const FDI_RULE_TEXT = 'an FDI tooth number (quadrants 1–4 with teeth 1–8, or primary quadrants 5–8 with teeth 1–5)';
 export const optionalTooth = (name: string) =>
-  optionalField(name, (v, no): number => (typeof v === 'number' && isValidFdi(v) ? v : no(`${name} must be ${FDI_RULE_TEXT}`)));
+  optionalField((v, no): number => (typeof v === 'number' && isValidFdi(v) ? v : no(`${name} must be ${FDI_RULE_TEXT}`)));
 
 /**
  * Preparation: "step-back" or a fixed taper written "0.02"–"0.12". A number such as 0.04 is
