@@ -22,14 +22,14 @@ export function SeverityMark({ severity }: { severity: Severity }) {
 export function FindingList(props: { findings: Finding[]; source: 'server' | 'tablet'; empty?: string }) {
   const list = [...props.findings].sort((a, b) => ORDER[a.severity] - ORDER[b.severity]);
   return (
-    <section aria-label="Findings" className="mt-3">
+    <section aria-label="Findings" className="mt-3" data-testid="findings-panel" data-source={props.source}>
       <h3 className="text-lg font-bold">
         Findings <span className="text-sm font-normal text-muted">({props.source === 'server' ? 'checked by the server' : 'checked on this tablet'})</span>
       </h3>
       {list.length === 0 ? (
         <p className="text-base text-muted" data-testid="no-findings">{props.empty ?? 'Nothing to flag so far.'}</p>
       ) : (
-        <ul className="flex flex-col gap-2 mt-1" data-testid="findings" data-source={props.source}>
+        <ul className="flex flex-col gap-2 mt-1" data-testid="findings">
           {list.map((f, i) => (
             <li key={`${f.code}-${f.eventId ?? i}`} data-code={f.code} className="border-l-4 pl-2 border-line">
               <SeverityMark severity={f.severity} /> <span className="text-base">{f.message}</span>

@@ -1,0 +1,276 @@
+import AxeBuilder from '@axe-core/playwright';
+import { mkdirSync } from 'node:fs';
+import type { Browser, BrowserContext, Locator, Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { launchBrowser, signIn } from '../helpers/browser';
+import { DEMO } from '../helpers/client';
+import { startServer, type TestServer } from '../helpers/server';
+
+// Invented scenario: an extracted lower left first molar (36), distal canal, CWL 20.5 mm,
+// MAF 35, orifice 9.0 mm from the reference point (so a spreader at 12.5 mm no longer passes
+// the coronal third).
+let server: TestServer;
+let browser: Browser;
+beforeAll(async () => {
+  mkdirSync('test-results', { recursive: true });
+  [server, browser] = await Promise.all([startServer(), launchBrowser()]);
+});
+afterAll(async () => {
+  await browser?.close();
+  await server?.stop();
+});
+
+/** Drives the island by taps and counts them. */
+class Driver {
+  taps = 0;
+  constructor(readonly page: Page) {}
+  step(): Locator { return this.page.getByTestId('step'); }
+  async tap(l: Locator): Promise<void> { await l.click(); this.taps++; }
+  async card(kind: string): Promise<void> {
+    await this.page.locator(`[data-testid="step"][data-card="${kind}"]`).waitFor({ timeout: 10_000 });
+  }
+  async answer(kind: string, name: string): Promise<void> {
+    await this.card(kind);
+    await this.tap(this.step().getByRole('button', { name, exact: true }));
+  }
+  async ruler(kind: string, mm: number, testId = 'ruler'): Promise<void> {
+    await this.card(kind);
+    await this.tap(this.step().getByTestId(testId).locator(`button[data-mm="${mm}"]`));
+  }
+}
+
+async function openChairside(page: Page, email: string, ready = 'new-case'): Promise<void> {
+  await signIn(page, server.baseUrl, email, DEMO.password, '/chairside');
+  if (new URL(page.url()).pathname !== '/chairside') await page.goto(`${server.baseUrl}/chairside`);
+  try {
+    await page.getByTestId(ready).waitFor();
+  } catch (e) {
+    await page.screenshot({ path: `test-results/chairside-failed-open-${email.split('.')[0]}.png` });
+    throw e;
+  }
+}
+
+/** Opens tooth 36 with only the distal canal and sets it up (not counted as canal taps). */
+async function setUpDistal36(page: Page): Promise<void> {
+  await page.getByTestId('new-case').click();
+  await page.getByRole('button', { name: 'Extracted tooth' }).click();
+  await page.getByTestId('quadrant-3').click();
+  await page.getByTestId('tooth-36').click();
+  await page.getByTestId('canal-MB').click();
+  await page.getByTestId('canal-ML').click();
+  await page.getByTestId('canals-confirm').click();
+  await page.getByTestId('ruler-cwl').locator('button[data-mm="20.5"]').click();
+  await page.getByTestId('maf-35').click();
+  await page.getByTestId('ruler-orifice').locator('button[data-mm="9"]').click();
+  await page.getByTestId('save-canal').click();
+  await page.locator('[data-testid="step"][data-card="seat"]').waitFor();
+}
+
+/** A whole canal by taps, with the chairside-flow defaults; optionally one short cone redone. */
+async function recordCanal(d: Driver, opts: { shortCone: boolean; check?: () => Promise<void> }): Promise<void> {
+  const check = opts.check ?? (async () => {});
+  await d.answer('seat', 'Seats and holds'); await check();
+  await d.ruler('taper', 19.5); await check();
+  await d.answer('radiograph', 'Taken');
+  await d.answer('rinse', 'Done'); await check();
+  await d.ruler('dry', 20.5); await check();
+  await d.ruler('master', 20.5, 'ruler-master');
+  await d.answer('master', 'Reached'); await check();
+  await d.answer('radiograph', 'Taken');
+  await d.answer('seal', 'Seated'); await check();
+  const depths = [18.5, 16.5, 14.5, 12.5];
+  for (const [i, depth] of depths.entries()) {
+    await d.ruler('spreader', depth); if (i === 0) await check();
+    if (opts.shortCone && i === 1) {
+      await d.answer('accessory', 'Stopped short');
+      await d.answer('remove', 'Removed'); await check();
+      await d.card('accessory');
+      await expect(d.step().locator('#step-title').textContent()).resolves.toContain('Place another cone at 16.5 mm');
+    }
+    await d.answer('accessory', 'Reached'); if (i === 0) await check();
+  }
+  await d.card('spreader');
+  await d.page.getByTestId('compaction-complete').waitFor();
+  await d.answer('spreader', 'Finish compaction');
+  await d.answer('fill', 'Radiograph taken'); await check();
+  await d.tap(d.step().getByRole('button', { name: 'Flush' }));
+  await d.tap(d.step().getByRole('button', { name: 'None' }));
+  await d.answer('sear', 'At the orifice'); await check();
+  await d.answer('compact', 'Done');
+  await d.answer('clean', 'Done');
+  await d.card('done'); await check();
+}
+
+/** Interactive elements smaller than 56 × 56 px (64 for ruler buttons and one-tap answers). */
+async function undersized(page: Page): Promise<string[]> {
+  return page.evaluate(() => {
+    const out: string[] = [];
+    for (const el of document.querySelectorAll<HTMLElement>('button, a[href], input, select, textarea, [role="button"], [tabindex]')) {
+      const r = el.getBoundingClientRect();
+      if (r.width === 0 && r.height === 0) continue; // not rendered
+      const big = el.closest('[data-testid^="ruler"]') || el.className.includes('min-h-16');
+      const min = big ? 64 : 56;
+      if (r.width < min - 0.5 || r.height < min - 0.5) out.push(`${el.tagName} "${el.textContent?.trim().slice(0, 30)}" ${Math.round(r.width)}×${Math.round(r.height)} < ${min}`);
+    }
+    return out;
+  });
+}
+
+async function seriousViolations(page: Page): Promise<string[]> {
+  const result = await new AxeBuilder({ page }).analyze();
+  return result.violations.filter((v) => v.impact === 'serious' || v.impact === 'critical').map((v) => `${v.id}: ${v.help} (${v.nodes.map((n) => n.target.join(' ')).join(', ')})`);
+}
+
+async function syncState(page: Page): Promise<string | null> {
+  return page.getByTestId('sync-state').getAttribute('data-state');
+}
+
+describe('the chairside island, offline first', () => {
+  it('records a whole canal offline by taps, keeps it through a reload, and syncs it when back online', async () => {
+    const context = await browser.newContext({ viewport: { width: 1280, height: 800 } });
+    const page = await context.newPage();
+    await openChairside(page, DEMO.mira);
+    // First visit installs the worker; the next load is controlled by it (registerType "prompt").
+    await page.evaluate(async () => { await navigator.serviceWorker.ready; });
+    await page.reload();
+    await page.getByTestId('new-case').waitFor();
+    expect(await page.evaluate(() => navigator.serviceWorker.controller !== null)).toBe(true);
+
+    await context.setOffline(true);
+    await setUpDistal36(page);
+    const d = new Driver(page);
+    await recordCanal(d, { shortCone: true });
+    expect(await syncState(page)).toBe('offline');
+    const waiting = Number(await page.getByTestId('sync-state').getAttribute('data-waiting'));
+    expect(waiting).toBeGreaterThanOrEqual(25);
+
+    await page.reload();
+    await page.locator('[data-testid="step"][data-card="done"]').waitFor();
+    await expect(page.getByTestId('tab-D').textContent()).resolves.toContain('seared');
+    const diagram = page.getByTestId('canal-diagram');
+    await expect(diagram.locator('[data-part="accessory"]').count()).resolves.toBe(4);
+    await expect(diagram.locator('[data-part="removed"]').count()).resolves.toBe(1);
+    await expect(diagram.locator('[data-part="spreader"]').count()).resolves.toBe(4);
+    await expect(page.getByTestId('sync-state').getAttribute('data-waiting')).resolves.toBe(String(waiting));
+
+    await context.setOffline(false);
+    await page.locator('[data-testid="sync-state"][data-state="synced"]').waitFor({ timeout: 30_000 });
+    await page.locator('[data-testid="findings-panel"][data-source="server"]').waitFor();
+    await page.screenshot({ path: 'test-results/chairside-synced-1280x800.png', fullPage: true });
+    await context.close();
+  });
+
+  it('never sends one user\'s unsent events under another user\'s session on the same browser', async () => {
+    const context = await browser.newContext({ viewport: { width: 1024, height: 768 } });
+    const page = await context.newPage();
+    // Mira records while the sync cannot get through.
+    await page.route('**/api/sync', (route) => route.abort('internetdisconnected'));
+    await openChairside(page, DEMO.mira);
+    await setUpDistal36(page);
+    const d = new Driver(page);
+    await d.answer('seat', 'Seats and holds');
+    await d.ruler('taper', 19.5);
+    const miraCase = await page.evaluate(() => JSON.stringify(localStorage)); // nothing there: data lives in IndexedDB
+    expect(miraCase).toBe('{}');
+    const miraIds: string[] = await page.evaluate(readQueuedIds);
+    expect(miraIds.length).toBeGreaterThanOrEqual(4);
+
+    await page.getByRole('button', { name: /Sign out/ }).click();
+    await page.getByTestId('unsent-warning').waitFor();
+    await page.getByRole('button', { name: 'Sign out anyway' }).click();
+    await page.waitForURL((u) => u.pathname === '/signout');
+    await page.getByRole('button', { name: 'Sign out' }).click();
+    await page.waitForURL((u) => u.pathname === '/signin');
+    await page.unroute('**/api/sync');
+
+    const sent: string[] = [];
+    page.on('request', (r) => { if (r.url().endsWith('/api/sync')) sent.push(r.postData() ?? ''); });
+    await openChairside(page, DEMO.tomas);
+    await page.getByTestId('new-case').click();
+    await page.getByRole('button', { name: 'Training block' }).click();
+    await page.getByTestId('canals-confirm').click();
+    await page.getByTestId('ruler-cwl').locator('button[data-mm="18"]').click();
+    await page.getByTestId('maf-30').click();
+    await page.getByTestId('save-canal').click();
+    await new Driver(page).answer('seat', 'Seats and holds');
+    await page.getByRole('button', { name: 'Sync now' }).click();
+    await page.locator('[data-testid="sync-state"][data-state="synced"]').waitFor({ timeout: 30_000 });
+    expect(sent.length).toBeGreaterThan(0);
+    for (const body of sent) for (const id of miraIds) expect(body).not.toContain(id);
+    // Mira's events are still on the tablet, unsent.
+    expect((await page.evaluate(readQueuedIds)).sort()).toEqual([...miraIds].sort());
+
+    // Tomas signs out with everything synced; Mira signs in again and her events go out.
+    await page.getByRole('button', { name: /Sign out/ }).click();
+    await page.waitForURL((u) => u.pathname === '/signout');
+    await page.getByRole('button', { name: 'Sign out' }).click();
+    await page.waitForURL((u) => u.pathname === '/signin');
+    await openChairside(page, DEMO.mira, 'step');
+    await page.locator('[data-testid="sync-state"][data-state="synced"]').waitFor({ timeout: 30_000 });
+    expect(await page.evaluate(readQueuedIds)).toEqual([]);
+    await context.close();
+  });
+});
+
+/** In the page: ids of every queued event on this tablet, whoever recorded them. */
+function readQueuedIds(): Promise<string[]> {
+  return new Promise((resolve, reject) => {
+    const open = indexedDB.open('coneline-chairside');
+    open.onerror = () => reject(open.error);
+    open.onsuccess = () => {
+      const req = open.result.transaction('events').objectStore('events').getAll();
+      req.onsuccess = () => {
+        resolve((req.result as { state: string; event: { id: string } }[]).filter((r) => r.state === 'queued').map((r) => r.event.id));
+        open.result.close();
+      };
+    };
+  });
+}
+
+describe('the chairside island for gloved hands', () => {
+  async function newSession(width: number, height: number): Promise<{ context: BrowserContext; page: Page }> {
+    const context = await browser.newContext({ viewport: { width, height } });
+    const page = await context.newPage();
+    await openChairside(page, DEMO.priya);
+    return { context, page };
+  }
+
+  it('fills a canal of an extracted tooth with four accessory cones in no more than 25 taps after set-up', async () => {
+    const { context, page } = await newSession(1280, 800);
+    await setUpDistal36(page);
+    const d = new Driver(page);
+    await recordCanal(d, { shortCone: false });
+    expect(d.taps).toBeLessThanOrEqual(25);
+    expect(d.taps).toBe(24);
+    await context.close();
+  });
+
+  it.each([[768, 1024], [1024, 768], [1280, 800], [800, 1280]])(
+    'keeps every control at least 56 px, passes axe, and lays out at %i × %i',
+    async (width, height) => {
+      const { context, page } = await newSession(width, height);
+      const problems: string[] = [];
+      const check = async () => {
+        problems.push(...(await undersized(page)));
+        problems.push(...(await seriousViolations(page)));
+      };
+      await check();
+      await setUpDistal36(page);
+      const d = new Driver(page);
+      let shot = 0;
+      await recordCanal(d, {
+        shortCone: true,
+        check: async () => {
+          await check();
+          if (shot++ % 4 === 0) await page.screenshot({ path: `test-results/chairside-${width}x${height}-${shot}.png` });
+        },
+      });
+      await page.getByRole('button', { name: 'Finish the tooth' }).click();
+      await check();
+      await page.screenshot({ path: `test-results/chairside-${width}x${height}-summary.png`, fullPage: true });
+      expect([...new Set(problems)]).toEqual([]);
+      await context.close();
+    },
+    120_000,
+  );
+});
