@@ -38,7 +38,9 @@ export async function startServer(opts: { templateDb?: string; env?: Record<stri
   }
   const port = await freePort();
   let log = '';
-  const child: ChildProcess = spawn(process.execPath, [ENTRY], {
+    // SERVER_NODE_ARGS, e.g. "--cpu-prof --cpu-prof-dir=/tmp/prof", for profiling a benchmark.
+  const nodeArgs = (process.env.SERVER_NODE_ARGS ?? '').split(' ').filter(Boolean);
+  const child: ChildProcess = spawn(process.execPath, [...nodeArgs, ENTRY], {
     cwd: ROOT,
     env: {
       ...process.env, HOST: '127.0.0.1', PORT: String(port), DB_FILE: dbFile, DATA_DIR: dir,

@@ -3,6 +3,9 @@ import type { Knex } from 'knex';
 import { evaluateCanal, type CanalResult, type LogEvent, type Tolerances } from '../rules/index';
 import { tolerances } from './settings';
 
+/** Status of a canal whose canal.added was withdrawn. */
+export const REMOVED = 'removed';
+
 interface EventRow {
   id: string;
   case_id: string;
@@ -37,7 +40,12 @@ export async function recomputeCanals(
   const out: CanalResult[] = [];
   for (const canalId of canalIds) {
     const result = evaluateCanal(canalId, events, t);
-    if (!result) continue;
+    if (!result) {
+      // Its canal.added was voided: the canal no longer exists for the rules or the reader.
+      await k('findings').where({ canal_id: canalId }).delete();
+      await k('canals').where({ id: canalId }).update({ status: REMOVED, stops: 0, cautions: 0, notes: 0, updated_at: k.fn.now() });
+      continue;
+    }
     const count = (s: string) => result.findings.filter((f) => f.severity === s).length;
     await k('canals').where({ id: canalId }).update({
       status: result.state.status,
@@ -79,6 +87,7 @@ export async function storedCanal(k: Knex, canalId: string): Promise<CanalResult
     .join('cases', 'cases.id', 'canals.case_id')
     .select('canals.id', 'canals.case_id', 'canals.state_json', 'cases.review_status')
     .where('canals.id', canalId)
+    .whereNot('canals.status', REMOVED)
     .first();
   if (!row) return null;
   const findings = await k('findings')

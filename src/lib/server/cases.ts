@@ -2,7 +2,7 @@
 import type { Knex } from 'knex';
 import type { CanalResult, LogEvent } from '../rules/index';
 import { readableCase, readableCases, type CaseRow } from './access';
-import { caseEvents, storedCanal } from './canal-store';
+import { caseEvents, REMOVED, storedCanal } from './canal-store';
 
 export interface CaseSummary {
   caseId: string;
@@ -38,6 +38,7 @@ export async function listCases(
     ? ((await k('canals')
         .select('id', 'case_id', 'name', 'status', 'stops', 'cautions', 'notes')
         .whereIn('case_id', rows.map((r) => r.id))
+        .whereNot('status', REMOVED)
         .orderBy('id')) as { id: string; case_id: string; name: string; status: string; stops: number; cautions: number; notes: number }[])
     : [];
   return rows.map((r) => {
@@ -64,7 +65,7 @@ export async function caseDetail(k: Knex, user: SessionUser, caseId: string): Pr
   const row = await readableCase(k, user, caseId);
   if (!row) return null;
   const events = (await caseEvents(k, caseId)).sort((a, b) => Date.parse(a.at) - Date.parse(b.at) || (a.id < b.id ? -1 : 1));
-  const canalIds = ((await k('canals').select('id').where({ case_id: caseId }).orderBy('id')) as { id: string }[]).map((c) => c.id);
+  const canalIds = ((await k('canals').select('id').where({ case_id: caseId }).whereNot('status', REMOVED).orderBy('id')) as { id: string }[]).map((c) => c.id);
   const canals: CanalResult[] = [];
   for (const id of canalIds) {
     const c = await storedCanal(k, id);

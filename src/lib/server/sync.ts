@@ -185,7 +185,8 @@ export async function ingestBatch(
       else if (t !== 'all') touched.set(e.caseId, (t ?? new Set()).add(e.canalId));
     }
 
-    for (let i = 0; i < toInsert.length; i += 100) await trx('events').insert(toInsert.slice(i, i + 100));
+    // 250 rows × 10 columns stays well under SQLite's 32,766 bound parameters.
+    for (let i = 0; i < toInsert.length; i += 250) await trx('events').insert(toInsert.slice(i, i + 250));
     for (const caseId of submittedCases) {
       await trx('cases').where({ id: caseId }).whereIn('review_status', ['open', 'returned'])
         .update({ review_status: 'submitted', submitted_at: receivedAt, updated_at: trx.fn.now() });
