@@ -27,7 +27,7 @@ class Driver {
   step(): Locator { return this.page.getByTestId('step'); }
   async tap(l: Locator): Promise<void> { await l.click(); this.taps++; }
   async card(kind: string): Promise<void> {
-    await this.page.locator(`[data-testid="step"][data-card="${kind}"]`).waitFor({ timeout: 10_000 });
+    await this.page.locator(`[data-testid="step"][data-card="${kind}"]`).waitFor({ timeout: 20_000 });
   }
   async answer(kind: string, name: string): Promise<void> {
     await this.card(kind);

@@ -13,7 +13,7 @@ export function TopBar(props: { info: CaseInfo | null; onCases: () => void; onSi
   const info = props.info;
   return (
     <header className="bg-white border-b-2 border-line px-3 py-2 flex flex-wrap items-center gap-2">
-      <span className="font-bold text-2xl tracking-tight mr-2" aria-label="Coneline">
+      <span className="font-bold text-2xl tracking-tight mr-2" role="img" aria-label="Coneline">
         <span className="border-b-4 border-gutta pb-0.5" aria-hidden="true">Cone</span><span aria-hidden="true">line</span>
       </span>
       {info && (

@@ -15,7 +15,7 @@ export function UndoStrip() {
     const t = setTimeout(clearUndo, UNDO_MS);
     return () => clearTimeout(t);
   }, [undo, clearUndo]);
-  const value = undo && last && last.eventId === undo.eventId ? ` ${last.value}` : '';
+  const value = undo && last && last.eventId === undo.eventId && last.value.endsWith('mm') ? ` ${last.value}` : '';
   return (
     <div role="status" aria-live="polite" data-testid="undo-strip" data-saved={saved}
       className={`fixed bottom-0 inset-x-0 z-20 px-4 py-2 flex items-center gap-4 bg-ink text-white ${undo ? '' : 'hidden'}`}>
