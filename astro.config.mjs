@@ -4,7 +4,16 @@ import node from '@astrojs/node';
 import react from '@astrojs/react';
 import tailwindcss from '@tailwindcss/vite';
 import auth from 'auth-astro';
+import { networkInterfaces } from 'node:os';
 import { chairsidePwa } from './src/lib/pwa-config.mjs';
+
+// This machine's own IPv4 addresses, so that a tablet on the local network (HTTPS=1 npm start)
+// passes the origin check; scripts/start.ts rebuilds when they change.
+const localAddresses = Object.values(networkInterfaces())
+  .flat()
+  .filter((n) => n && n.family === 'IPv4')
+  .map((n) => /** @type {{ address: string }} */ (n).address)
+  .sort();
 
 export default defineConfig({
   output: 'server',
@@ -16,7 +25,7 @@ export default defineConfig({
     checkOrigin: true,
     allowedDomains: [
       { hostname: 'localhost' },
-      { hostname: '127.0.0.1' },
+      ...localAddresses.map((hostname) => ({ hostname })),
       ...(process.env.PUBLIC_HOST ? [{ hostname: process.env.PUBLIC_HOST }] : []),
     ],
   },

@@ -3,7 +3,8 @@
  * newer than the build, starts the local stand-ins and serves Coneline. No variables needed.
  */
 import { spawn, spawnSync } from 'node:child_process';
-import { existsSync, readdirSync, statSync } from 'node:fs';
+import { existsSync, readFileSync, readdirSync, statSync, writeFileSync } from 'node:fs';
+import { networkInterfaces } from 'node:os';
 import { join, resolve } from 'node:path';
 import { prepareDb } from './lib/dbtasks.ts';
 import { startStandIns } from './lib/standins.ts';
@@ -23,9 +24,17 @@ function newest(path: string): number {
   return readdirSync(path).reduce((m, f) => Math.max(m, newest(join(path, f))), st.mtimeMs);
 }
 
+/** The addresses the origin check lets in are fixed at build time (astro.config.mjs). */
+function addressStamp(): string {
+  const ips = Object.values(networkInterfaces()).flat().filter((n) => n && n.family === 'IPv4').map((n) => n!.address).sort();
+  return [...ips, process.env.PUBLIC_HOST ?? ''].join(',');
+}
+
 function buildIfNeeded(): void {
   const entry = resolve(root, 'dist/server/entry.mjs');
-  const built = existsSync(entry) ? statSync(entry).mtimeMs : 0;
+  const stampFile = resolve(root, 'dist/.coneline-build-hosts');
+  const stampOk = existsSync(stampFile) && readFileSync(stampFile, 'utf8') === addressStamp();
+  const built = existsSync(entry) && stampOk ? statSync(entry).mtimeMs : 0;
   const sources = Math.max(
     ...['src', 'public', 'db/migrations', 'astro.config.mjs', 'auth.config.ts', 'package-lock.json'].map((p) => newest(resolve(root, p))),
   );
@@ -33,6 +42,7 @@ function buildIfNeeded(): void {
   console.log('Building Coneline…');
   const r = spawnSync(process.execPath, [resolve(root, 'node_modules/astro/astro.js'), 'build'], { cwd: root, stdio: 'inherit' });
   if (r.status !== 0) process.exit(r.status ?? 1);
+  writeFileSync(stampFile, addressStamp());
 }
 
 const { seeded } = await prepareDb(dbFile, { seedIfEmpty: true });

@@ -1,7 +1,7 @@
 /** Starts the built server (dist/server/entry.mjs) on a free port in a temporary folder, for tests and benchmarks. */
 import { spawn, type ChildProcess } from 'node:child_process';
 import { copyFileSync, existsSync, mkdtempSync, rmSync } from 'node:fs';
-import { createServer } from 'node:net';
+import { connect, createServer } from 'node:net';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 
@@ -15,6 +15,18 @@ export interface TestServer {
   /** Everything the server printed, for tests that look at its logs. */
   output(): string;
   stop(): Promise<void>;
+}
+
+/** True once something accepts connections on the port (the server listens when ready). */
+function listening(port: number): Promise<boolean> {
+  return new Promise((resolveUp) => {
+    const socket = connect(port, '127.0.0.1');
+    socket.once('connect', () => {
+      socket.destroy();
+      resolveUp(true);
+    });
+    socket.once('error', () => resolveUp(false));
+  });
 }
 
 export function freePort(): Promise<number> {
@@ -50,16 +62,12 @@ export async function startServer(opts: { templateDb?: string; env?: Record<stri
   });
   child.stdout?.on('data', (d: Buffer) => (log += d.toString()));
   child.stderr?.on('data', (d: Buffer) => (log += d.toString()));
-  const baseUrl = `http://127.0.0.1:${port}`;
+  const https = Boolean(opts.env?.SERVER_CERT_PATH);
+  const baseUrl = `${https ? 'https' : 'http'}://127.0.0.1:${port}`;
   const deadline = Date.now() + 20_000;
   for (;;) {
     if (child.exitCode !== null) throw new Error(`server exited early:\n${log}`);
-    try {
-      const res = await fetch(`${baseUrl}/signin`);
-      if (res.status === 200) break;
-    } catch {
-      // not listening yet
-    }
+    if (await listening(port)) break;
     if (Date.now() > deadline) throw new Error(`server did not start:\n${log}`);
     await new Promise((r) => setTimeout(r, 100));
   }
