@@ -1,6 +1,8 @@
 // @ts-check
 // The chairside service worker: precaches the prerendered /chairside shell and its assets
 // so the tablet opens it with no network after one visit (stack-notes.md, "Offline-first").
+// The island registers it with workbox-window (src/lib/client/pwa.ts) and offers a reload
+// when a new version waits ("prompt").
 import AstroPWA from '@vite-pwa/astro';
 
 export function chairsidePwa() {
@@ -8,26 +10,35 @@ export function chairsidePwa() {
     registerType: 'prompt',
     injectRegister: false,
     manifest: {
+      id: '/chairside',
       name: 'Coneline chairside',
       short_name: 'Coneline',
-      description: 'Chairside obturation log for endodontic teaching clinics',
+      description: 'The obturation log on the operatory tray: canal by canal, one tap per length.',
+      lang: 'en',
       start_url: '/chairside',
       scope: '/',
       display: 'standalone',
+      orientation: 'any',
       background_color: '#F8F6F1',
       theme_color: '#17212E',
+      categories: ['medical', 'education'],
       icons: [
         { src: '/icons/coneline-192.png', sizes: '192x192', type: 'image/png' },
         { src: '/icons/coneline-512.png', sizes: '512x512', type: 'image/png' },
         { src: '/icons/coneline-maskable-512.png', sizes: '512x512', type: 'image/png', purpose: 'maskable' },
+        { src: '/icons/coneline.svg', sizes: 'any', type: 'image/svg+xml' },
       ],
     },
     workbox: {
+      // Only the chairside shell answers navigations offline; everything else is server-rendered.
       navigateFallback: '/chairside',
-      navigateFallbackAllowlist: [/^\/chairside/],
+      navigateFallbackAllowlist: [/^\/chairside\/?$/],
       navigateFallbackDenylist: [/^\/api\//],
-      globPatterns: ['**/*.{js,css,html,woff2,svg,png,ico}'],
+      // The manifest is precached by the plugin itself; listing it here would add it twice.
+      globPatterns: ['chairside/**/*.html', '_astro/**/*.{js,css,woff2}', 'icons/*.{png,svg}', 'favicon.svg'],
       cleanupOutdatedCaches: true,
+      // Never cache API answers: they are personal and must come from the server or IndexedDB.
+      runtimeCaching: [],
     },
   });
 }

@@ -2,7 +2,7 @@ import AxeBuilder from '@axe-core/playwright';
 import { mkdirSync } from 'node:fs';
 import type { Browser, BrowserContext, Locator, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { launchBrowser, signIn } from '../helpers/browser';
+import { launchBrowser, launchPersistent, signIn } from '../helpers/browser';
 import { DEMO } from '../helpers/client';
 import { startServer, type TestServer } from '../helpers/server';
 
@@ -124,6 +124,29 @@ async function seriousViolations(page: Page): Promise<string[]> {
 async function syncState(page: Page): Promise<string | null> {
   return page.getByTestId('sync-state').getAttribute('data-state');
 }
+
+describe('the chairside app shell', () => {
+  it('is an installable app with our own icons, and opens with no network after one visit', async () => {
+    const context = await launchPersistent({ viewport: { width: 1024, height: 768 } });
+    try {
+      const page = await context.newPage();
+      await page.goto(`${server.baseUrl}/chairside`);
+      await page.evaluate(async () => { await navigator.serviceWorker.ready; });
+      const cdp = await context.newCDPSession(page);
+      const { installabilityErrors } = (await cdp.send('Page.getInstallabilityErrors')) as { installabilityErrors: unknown[] };
+      expect(installabilityErrors).toEqual([]);
+      const manifest = (await (await page.request.get(`${server.baseUrl}/manifest.webmanifest`)).json()) as { icons: { src: string }[] };
+      for (const icon of manifest.icons) expect((await page.request.get(server.baseUrl + icon.src)).status()).toBe(200);
+      await page.reload();
+      await context.setOffline(true);
+      await page.reload();
+      await expect(page.title()).resolves.toContain('Chairside');
+      await page.getByRole('heading', { name: /Sign in/ }).waitFor();
+    } finally {
+      await context.close();
+    }
+  });
+});
 
 describe('the chairside island, offline first', () => {
   it('records a whole canal offline by taps, keeps it through a reload, and syncs it when back online', async () => {
