@@ -1,0 +1,78 @@
+import 'fake-indexeddb/auto';
+import { IDBFactory } from 'fake-indexeddb';
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
+import type { LogEvent } from '../../../src/lib/rules/index';
+import { closeDb } from '../../../src/lib/client/db';
+import { applyResults, getMeta, listEvents, putEvent } from '../../../src/lib/client/outbox';
+import { deviceId, leave, resolveIdentity } from '../../../src/lib/client/session';
+
+const mira = { id: 11, name: 'Mira Okafor', role: 'student' as const };
+const tomas = { id: 12, name: 'Tomas Lindqvist', role: 'student' as const };
+
+function answer(status: number, body: unknown) {
+  return vi.fn(async () => new Response(JSON.stringify(body), { status, headers: { 'Content-Type': 'application/json' } }));
+}
+const offline = vi.fn(async () => { throw new TypeError('Failed to fetch'); });
+let n = 0;
+const event = () => ({ id: `ev-${++n}`, caseId: 'c', canalId: 'k', type: 'seat.checked', at: new Date().toISOString(), data: {} }) as unknown as LogEvent;
+
+beforeEach(async () => {
+  await closeDb();
+  globalThis.indexedDB = new IDBFactory();
+});
+afterEach(() => { vi.unstubAllGlobals(); });
+
+describe('resolveIdentity', () => {
+  it('keeps the signed-in user so the tablet works offline as them later', async () => {
+    vi.stubGlobal('fetch', answer(200, mira));
+    expect(await resolveIdentity()).toEqual({ user: mira, source: 'server', signedOut: false });
+    vi.stubGlobal('fetch', offline);
+    expect(await resolveIdentity()).toEqual({ user: mira, source: 'tablet', signedOut: false });
+  });
+
+  it('clears the previous user\'s data when someone else signs in and all of it was sent', async () => {
+    vi.stubGlobal('fetch', answer(200, mira));
+    await resolveIdentity();
+    const e = event();
+    await putEvent(mira.id, e);
+    await applyResults(mira.id, [{ id: e.id, status: 'stored' }]);
+    vi.stubGlobal('fetch', answer(200, tomas));
+    await resolveIdentity();
+    expect(await listEvents(mira.id)).toEqual([]);
+  });
+
+  it('keeps the previous user\'s unsent events untouched when someone else signs in', async () => {
+    vi.stubGlobal('fetch', answer(200, mira));
+    await resolveIdentity();
+    await putEvent(mira.id, event());
+    vi.stubGlobal('fetch', answer(200, tomas));
+    expect((await resolveIdentity()).user).toEqual(tomas);
+    expect((await listEvents(mira.id)).map((r) => r.state)).toEqual(['queued']);
+  });
+
+  it('works as nobody after the server says nobody is signed in', async () => {
+    vi.stubGlobal('fetch', answer(200, mira));
+    await resolveIdentity();
+    vi.stubGlobal('fetch', answer(401, { error: 'Sign in first.' }));
+    expect(await resolveIdentity()).toEqual({ user: null, source: null, signedOut: true });
+    vi.stubGlobal('fetch', offline);
+    expect((await resolveIdentity()).user).toBeNull();
+  });
+});
+
+describe('leave', () => {
+  it('warns with the unsent count and keeps the events', async () => {
+    await putEvent(mira.id, event());
+    expect(await leave(mira.id, 1)).toBe(1);
+    expect(await listEvents(mira.id)).toHaveLength(1);
+    expect(await getMeta('lastUser')).toBeUndefined();
+  });
+});
+
+describe('deviceId', () => {
+  it('makes one id per browser and keeps it', async () => {
+    const first = await deviceId();
+    expect(first).toMatch(/^tablet-[0-9a-f]{12}$/);
+    expect(await deviceId()).toBe(first);
+  });
+});
