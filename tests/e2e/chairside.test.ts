@@ -268,6 +268,26 @@ describe('the chairside island for gloved hands', () => {
     await context.close();
   });
 
+  it('withdraws an answer from the canal\'s timeline and asks that step again', async () => {
+    const { context, page } = await newSession(1024, 768);
+    await setUpDistal36(page);
+    const d = new Driver(page);
+    await d.answer('seat', 'Seats and holds');
+    await d.ruler('taper', 19.5);
+    await d.answer('radiograph', 'Taken');
+    await d.card('rinse');
+    await page.getByRole('button', { name: /^Timeline/ }).click();
+    const row = page.getByTestId('timeline').getByRole('listitem').filter({ hasText: 'Taper check' });
+    await row.getByRole('button', { name: 'Withdraw' }).click();
+    await d.card('taper');
+    await expect(page.getByTestId('timeline').getByRole('listitem').filter({ hasText: 'Taper check' }).count()).resolves.toBe(0);
+    expect(await undersized(page)).toEqual([]);
+    expect(await seriousViolations(page)).toEqual([]);
+    await d.ruler('taper', 19);
+    await d.card('rinse');
+    await context.close();
+  });
+
   it.each([[768, 1024], [1024, 768], [1280, 800], [800, 1280]])(
     'keeps every control at least 56 px, passes axe, and lays out at %i × %i',
     async (width, height) => {

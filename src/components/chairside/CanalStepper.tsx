@@ -7,6 +7,7 @@ import { shownResult } from '../../lib/client/views';
 import { keepAwake } from '../../lib/client/wakeLock';
 import { CanalDiagram } from '../shared/CanalDiagram';
 import type { CardProps } from './cardTypes';
+import { CanalTimeline } from './CanalTimeline';
 import { FindingList, JustEntered } from './FindingList';
 import { AccessoryCard, RemoveCard, SpreaderCard } from './StepCardsCompaction';
 import { CleanCard, CompactCard, DoneCard, FillCard, SearCard } from './StepCardsFinish';
@@ -71,6 +72,7 @@ export function CanalStepper(props: { canal: CanalInfo; setting: Setting; caseId
         <div key={cardKey}>{renderCard(card, cardProps, props.onFinishTooth, findings.some((f) => f.code === 'cone-fit-retake-needed'))}</div>
         {lastHere && <JustEntered key={lastHere.eventId} label={lastHere.label} value={lastHere.value} findings={verdict} />}
         <FindingList findings={findings} source={shown.source} />
+        <CanalTimeline canalId={canal.canalId} events={events} />
       </div>
       <aside aria-label={`Diagram of canal ${canal.name}`} className="bg-white rounded-2xl border border-line p-3 portrait:max-w-md">
         {state ? <CanalDiagram state={state} /> : <p className="text-muted">No diagram yet.</p>}

@@ -15,6 +15,7 @@ export function OpenCase({ onCancel }: { onCancel?: () => void }) {
   const record = useChairside((s) => s.record);
   const openCase = useChairside((s) => s.openCase);
   const showUniversal = useChairside((s) => s.showUniversal);
+  const toggleUniversal = useChairside((s) => s.toggleUniversal);
   const [setting, setSetting] = useState<Setting | null>(null);
   const [primary, setPrimary] = useState(false);
   const [quadrant, setQuadrant] = useState<number | null>(null);
@@ -74,7 +75,10 @@ export function OpenCase({ onCancel }: { onCancel?: () => void }) {
             </Answer>
           ))}
         </Answers>
-        <div className="mt-3"><Answer onTap={() => setQuadrant(null)}>Back</Answer></div>
+        <div className="mt-3 flex flex-wrap gap-2">
+          <Chip selected={showUniversal} onTap={toggleUniversal}>Show Universal numbers</Chip>
+          <Answer onTap={() => setQuadrant(null)}>Back</Answer>
+        </div>
       </StepCard>
     );
   }

@@ -83,6 +83,15 @@ describe('nextCard', () => {
     expect(nextCard(all, CANAL, ctx()).kind).toBe('spreader');
   });
 
+  it('goes back to a step whose answer was withdrawn from the timeline, then on to where it was', () => {
+    const all = upToSeated();
+    const taper = all.find((e) => e.type === 'taper.checked')!;
+    all.push(ev('event.voided', { eventId: taper.id, reason: 'Withdrawn from the timeline' }));
+    expect(nextCard(all, CANAL, ctx())).toEqual({ kind: 'taper', centre: 19.5 });
+    all.push(ev('taper.checked', { spreader: 'MF', depthMm: 19 }));
+    expect(nextCard(all, CANAL, ctx()).kind).toBe('spreader');
+  });
+
   it('moves to the fill check once compaction is finished, then sear, compaction, cleaning', () => {
     const all = upToSeated();
     all.push(ev('spreader.placed', { spreader: 'MF', depthMm: 18.5 }), ev('accessory.placed', { size: 'MF', lengthMm: 18.5, reachedLength: true }));
