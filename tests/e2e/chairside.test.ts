@@ -268,6 +268,29 @@ describe('the chairside island for gloved hands', () => {
     await context.close();
   });
 
+  it('keeps the screen awake while a canal is open, asking again when the page is shown again', async () => {
+    const context = await browser.newContext({ viewport: { width: 1024, height: 768 } });
+    // A stand-in Wake Lock that counts requests; the browser releases the lock when the page hides.
+    await context.addInitScript(() => {
+      const w = window as unknown as { wakeRequests: number; lastSentinel?: { released: boolean } };
+      w.wakeRequests = 0;
+      Object.defineProperty(navigator, 'wakeLock', {
+        value: { request: async () => { w.wakeRequests++; const s = { released: false, release: async () => { s.released = true; } }; w.lastSentinel = s; return s; } },
+      });
+    });
+    const page = await context.newPage();
+    await openChairside(page, DEMO.priya);
+    expect(await page.evaluate(() => (window as unknown as { wakeRequests: number }).wakeRequests)).toBe(0);
+    await setUpDistal36(page);
+    await expect.poll(() => page.evaluate(() => (window as unknown as { wakeRequests: number }).wakeRequests)).toBe(1);
+    await page.evaluate(() => {
+      (window as unknown as { lastSentinel: { released: boolean } }).lastSentinel.released = true;
+      document.dispatchEvent(new Event('visibilitychange'));
+    });
+    await expect.poll(() => page.evaluate(() => (window as unknown as { wakeRequests: number }).wakeRequests)).toBe(2);
+    await context.close();
+  });
+
   it('withdraws an answer from the canal\'s timeline and asks that step again', async () => {
     const { context, page } = await newSession(1024, 768);
     await setUpDistal36(page);
