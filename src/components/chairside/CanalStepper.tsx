@@ -67,7 +67,7 @@ export function CanalStepper(props: { canal: CanalInfo; setting: Setting; caseId
   const cardKey = `${card.kind}-${events.length}`;
 
   return (
-    <div className="grid gap-4 landscape:grid-cols-[minmax(0,1fr)_300px] portrait:grid-cols-1">
+    <div className="grid gap-4 landscape:grid-cols-[minmax(0,1fr)_340px] portrait:grid-cols-1">
       <div data-testid="step" data-card={card.kind}>
         <div key={cardKey}>{renderCard(card, cardProps, props.onFinishTooth, findings.some((f) => f.code === 'cone-fit-retake-needed'))}</div>
         {lastHere && <JustEntered key={lastHere.eventId} label={lastHere.label} value={lastHere.value} findings={verdict} />}
