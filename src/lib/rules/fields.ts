@@ -1,47 +1,46 @@
-// Field schemas for event data. Each one writes its own message, naming the field and what
-// is allowed, so that formatZodError can show it to a person as it is.
+// Fields of events. Each one writes its own message, naming the field and what is allowed,
+// so that formatZodError can show it to a person as it is.
+//
+// A field is a plain check, not a zod schema of its own: parseEvent runs on every synced event
+// (the server must take ≥ 10,000 a second) and zod 3 spends about 2 µs, and much garbage, on
+// each transform it runs; so events.ts reads all the fields of an event in one (see record.ts).
 import { z } from 'zod';
 import { normaliseSize, SIZE_RULE_TEXT } from './sizes';
 import { isValidFdi } from './teeth';
 
-type Check<T> = (v: unknown, fail: (message: string) => never) => T;
+/** What a check returns for a value it refuses: the sentence a person sees. */
+export class Invalid {
+  constructor(readonly message: string) {}
+}
+const no = (message: string): Invalid => new Invalid(message);
 
-class FieldFailure extends Error {}
+/** Reads a given value (not undefined or null) into its normalised form, or refuses it. */
+type Check<T> = (v: unknown) => T | Invalid;
+
+/** One field: its check, and what to say when it is absent or null (nothing, if optional). */
+export interface Field<T, Optional extends boolean = boolean> {
+  readonly check: Check<T>;
+  readonly missing: Optional extends true ? undefined : string;
+}
 
 /** A required field whose parsing and message are entirely ours. */
-function field<T>(name: string, check: Check<T>) {
-  return z.unknown().transform((v, ctx): T => {
-    if (v === undefined || v === null) return fail(ctx, `${name} is required`);
-    return run(v, ctx, check);
-  });
+function field<T>(name: string, check: Check<T>): Field<T, false> {
+  return { check, missing: `${name} is required` };
 }
 
 /** An optional field: absent or null means "not given". */
-function optionalField<T>(check: Check<T>) {
-  return z.unknown().transform((v, ctx): T | undefined => {
-    if (v === undefined || v === null) return undefined;
-    return run(v, ctx, check);
-  });
+function optionalField<T>(check: Check<T>): Field<T, true> {
+  return { check, missing: undefined };
 }
 
-function run<T>(v: unknown, ctx: z.RefinementCtx, check: Check<T>): T {
-  try {
-    return check(v, (message) => {
-      throw new FieldFailure(message);
-    });
-  } catch (e) {
-    if (e instanceof FieldFailure) return fail(ctx, e.message);
-    throw e;
-  }
-}
-
-function fail(ctx: z.RefinementCtx, message: string): never {
-  ctx.addIssue({ code: z.ZodIssueCode.custom, message });
-  return z.NEVER;
+/** Reads one field: its value, undefined for an optional field not given, or what is wrong. */
+export function readField<T>(f: Field<T>, v: unknown): T | undefined | Invalid {
+  if (v === undefined || v === null) return f.missing === undefined ? undefined : no(f.missing);
+  return f.check(v);
 }
 
 function mmCheck(name: string, min: number, max: number): Check<number> {
-  return (v, no) => {
+  return (v) => {
     if (typeof v !== 'number' || !Number.isFinite(v)) return no(`${name} must be a number of millimetres`);
     if (v < min || v > max) return no(`${name} must be between ${min} and ${max} mm`);
     if (!Number.isInteger(v * 2)) return no(`${name} must be a multiple of 0.5 mm`);
@@ -56,27 +55,27 @@ export const optionalOrificeMm = (name: string) => optionalField(mmCheck(name, 0
 /** relativeToCejMm: −5 to +5 mm in 0.5 mm steps (negative = above the CEJ). */
 export const optionalCejMm = (name: string) => optionalField(mmCheck(name, -5, 5));
 
-const sizeCheck = (name: string): Check<string> => (v, no) =>
+const sizeCheck = (name: string): Check<string> => (v) =>
   normaliseSize(v) ?? no(`${name} must be ${SIZE_RULE_TEXT}`);
 export const size = (name: string) => field(name, sizeCheck(name));
 export const optionalSize = (name: string) => optionalField(sizeCheck(name));
 
 export function oneOf<const T extends readonly string[]>(name: string, values: T) {
-  return field(name, (v, no): T[number] =>
+  return field(name, (v): T[number] | Invalid =>
     typeof v === 'string' && (values as readonly string[]).includes(v) ? (v as T[number]) : no(`${name} must be one of ${values.join(', ')}`),
   );
 }
 export function optionalOneOf<const T extends readonly string[]>(name: string, values: T) {
-  return optionalField((v, no): T[number] =>
+  return optionalField((v): T[number] | Invalid =>
     typeof v === 'string' && (values as readonly string[]).includes(v) ? (v as T[number]) : no(`${name} must be one of ${values.join(', ')}`),
   );
 }
 
-const boolCheck = (name: string): Check<boolean> => (v, no) => (typeof v === 'boolean' ? v : no(`${name} must be true or false`));
+const boolCheck = (name: string): Check<boolean> => (v) => (typeof v === 'boolean' ? v : no(`${name} must be true or false`));
 export const bool = (name: string) => field(name, boolCheck(name));
 export const optionalBool = (name: string) => optionalField(boolCheck(name));
 
-const textCheck = (name: string, max: number, allowEmpty: boolean): Check<string> => (v, no) => {
+const textCheck = (name: string, max: number, allowEmpty: boolean): Check<string> => (v) => {
   if (typeof v !== 'string') return no(`${name} must be text`);
   const s = v.trim();
   if (!allowEmpty && s.length === 0) return no(`${name} must not be empty`);
@@ -90,22 +89,32 @@ export const textMayBeEmpty = (name: string, max: number) => field(name, textChe
 export const optionalText = (name: string, max: number) => optionalField(textCheck(name, max, true));
 
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
-const uuidCheck = (name: string): Check<string> => (v, no) =>
+const uuidCheck = (name: string): Check<string> => (v) =>
   typeof v === 'string' && UUID.test(v) ? v.toLowerCase() : no(`${name} must be a UUID`);
 /** A UUID, lower-cased (UUIDs are case-insensitive; one spelling keeps duplicates recognisable). */
 export const uuid = (name: string) => field(name, uuidCheck(name));
 export const optionalUuid = (name: string) => optionalField(uuidCheck(name));
 
+// zod's own pattern for z.string().datetime({ offset: true }), built once: zod builds it anew
+// on every call, and that was the costliest single step of parsing an event.
+const ISO_INSTANT = z.datetimeRegex({ precision: null, offset: true, local: false });
+/** An instant in ISO 8601 with a time zone (Z or an offset), kept as written. */
+export const instant = (name: string) =>
+  field(name, (v): string | Invalid =>
+    typeof v === 'string' && ISO_INSTANT.test(v) && Number.isFinite(Date.parse(v))
+      ? v
+      : no(`${name} must be an ISO 8601 instant with a time zone, such as 2026-12-02T09:41:07.250Z`));
+
 export const FDI_RULE_TEXT = 'an FDI tooth number (quadrants 1–4 with teeth 1–8, or primary quadrants 5–8 with teeth 1–5)';
 export const optionalTooth = (name: string) =>
-  optionalField((v, no): number => (typeof v === 'number' && isValidFdi(v) ? v : no(`${name} must be ${FDI_RULE_TEXT}`)));
+  optionalField((v): number | Invalid => (typeof v === 'number' && isValidFdi(v) ? v : no(`${name} must be ${FDI_RULE_TEXT}`)));
 
 /**
  * Preparation: "step-back" or a fixed taper written "0.02"–"0.12". A number such as 0.04 is
  * read as "0.04", the way sizes are read (our decision; the contract shows the taper as 0.04).
  */
 export const preparation = (name: string) =>
-  field(name, (v, no): string => {
+  field(name, (v): string | Invalid => {
     const s = typeof v === 'number' && Number.isFinite(v) ? v.toFixed(2) : v;
     if (s === 'step-back') return s;
     if (typeof s === 'string' && /^0\.(0[2-9]|1[0-2])$/.test(s) && (typeof v === 'string' || Number(s) === v)) return s;
@@ -115,7 +124,7 @@ export const preparation = (name: string) =>
 export const SOLUTIONS = ['naocl', 'edta', 'saline', 'chlorhexidine'] as const;
 /** Rinse solutions: a non-empty list, duplicates dropped, the order kept. */
 export const solutions = (name: string) =>
-  field(name, (v, no): (typeof SOLUTIONS)[number][] => {
+  field(name, (v): (typeof SOLUTIONS)[number][] | Invalid => {
     const message = `${name} must list one or more of ${SOLUTIONS.join(', ')}`;
     if (!Array.isArray(v) || v.length === 0) return no(message);
     const out: (typeof SOLUTIONS)[number][] = [];

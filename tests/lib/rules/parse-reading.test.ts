@@ -1,0 +1,82 @@
+// How parseEvent reads the edges of an event. The rules core reads all fields of an event in
+// one zod transform (for speed); these pin what z.object over one schema per field did.
+import { describe, expect, it } from 'vitest';
+import { z } from 'zod';
+import { eventSchema, parseEvent } from '../../../src/lib/rules';
+import { NOW, uuidFor } from './builder';
+
+const ev = (extra: Record<string, unknown> = {}) => ({
+  id: uuidFor(1), caseId: uuidFor(2), canalId: uuidFor(3), type: 'spreader.placed', at: '2026-12-02T09:41:07.250Z',
+  data: { spreader: 'MF', depthMm: 13.5 }, ...extra,
+});
+const opened = (data: unknown) => {
+  const e: Record<string, unknown> = ev({ type: 'case.opened', data });
+  delete e.canalId;
+  return e;
+};
+const error = (raw: unknown) => {
+  const r = parseEvent(raw, NOW);
+  return r.ok ? 'accepted' : r.error;
+};
+const AT_MESSAGE = 'at must be an ISO 8601 instant with a time zone, such as 2026-12-02T09:41:07.250Z';
+
+describe('at', () => {
+  const accepted = ['2026-12-02T09:41:07+0100', '2026-12-02T09:41:07-23:59', '2026-12-02T09:41Z', '2026-12-02T09:41:07.123456789Z', '2024-02-29T09:00:00Z'];
+  const refused = ['2026-12-02T09:41:07+99:99', '2026-02-29T09:00:00Z', '2026-12-02t09:41:07Z', '2026-12-02T24:00:00Z', '2026-12-02T09:41:07'];
+  it('takes what zod’s datetime({ offset: true }) takes and Date can read, kept as written', () => {
+    const zodInstant = z.string().datetime({ offset: true });
+    for (const at of [...accepted, ...refused]) {
+      const expected = zodInstant.safeParse(at).success && Number.isFinite(Date.parse(at));
+      const r = parseEvent(ev({ at }), NOW);
+      expect(r.ok ? r.event.at : r.error, at).toBe(expected ? at : AT_MESSAGE);
+    }
+    expect(accepted.map((at) => error(ev({ at })))).toEqual(accepted.map(() => 'accepted'));
+  });
+});
+
+describe('optional fields', () => {
+  it('keep a key sent as null, as undefined, and leave out a key not sent', () => {
+    const sentNull = parseEvent(opened({ setting: 'extracted', tooth: 46, chartRef: null }), NOW);
+    const notSent = parseEvent(opened({ setting: 'extracted', tooth: 46 }), NOW);
+    if (!sentNull.ok || !notSent.ok) throw new Error('rejected');
+    expect(Object.keys(sentNull.event.data)).toEqual(['setting', 'tooth', 'chartRef']);
+    expect(Object.keys(notSent.event.data)).toEqual(['setting', 'tooth']);
+    expect(Object.keys(notSent.event)).toEqual(['id', 'caseId', 'type', 'at', 'data']);
+    const note = parseEvent(ev({ type: 'note.added', canalId: undefined, data: { text: 'ok' } }), NOW);
+    expect(note.ok && Object.keys(note.event)).toEqual(['id', 'caseId', 'canalId', 'type', 'at', 'data']);
+  });
+});
+
+describe('objects', () => {
+  it('refuses an event or data that zod does not read as an object', () => {
+    for (const x of [new Date(0), new Map(), [], Promise.resolve(1), () => 1]) expect(error(x)).toBe('the event must be an object');
+    for (const d of [new Date(0), new Map(), [], null, 'x', Promise.resolve(1)]) expect(error(ev({ data: d }))).toBe('data must be an object');
+    expect(error(ev({ type: 'gp.compacted', data: null }))).toBe('accepted');
+    expect(error(ev({ type: 'gp.compacted', data: [] }))).toBe('data must be an object');
+  });
+  it('reads data without a prototype', () => {
+    expect(error(ev({ data: Object.assign(Object.create(null), { spreader: 'MF', depthMm: 13.5 }) }))).toBe('accepted');
+  });
+});
+
+describe('problems', () => {
+  it('are reported in the contract’s order: the envelope, then data, then cross-field checks', () => {
+    expect(error(ev({ id: 'x', at: 'y', data: { depthMm: 0.2 } }))).toBe('id must be a UUID');
+    expect(error(ev({ at: 'y', data: { depthMm: 0.2 } }))).toBe(AT_MESSAGE);
+    const r = eventSchema.safeParse(opened({ setting: 'patient', tooth: 99 }));
+    expect(r.success ? [] : r.error.issues).toEqual([
+      { code: 'custom', path: ['data', 'tooth'], message: expect.stringContaining('tooth must be an FDI tooth number') },
+      { code: 'custom', path: ['data', 'chartRef'], message: 'chartRef is required for a patient' },
+    ]);
+  });
+  it('each carry their path in eventSchema', () => {
+    const r = eventSchema.safeParse(ev({ id: 'x', data: { spreader: 'mf', depthMm: 13.25 } }));
+    expect(r.success ? [] : r.error.issues.map((i) => [i.path.join('.'), i.code])).toEqual([
+      ['id', 'custom'], ['data.spreader', 'custom'], ['data.depthMm', 'custom'],
+    ]);
+    const d = eventSchema.safeParse(ev({ data: 7 }));
+    expect(d.success ? [] : d.error.issues).toEqual([
+      { code: 'invalid_type', expected: 'object', received: 'number', path: ['data'], message: 'data must be an object' },
+    ]);
+  });
+});
