@@ -17,6 +17,8 @@ const localAddresses = Object.values(networkInterfaces())
 
 export default defineConfig({
   output: 'server',
+  // A second build folder lets a benchmark or an experiment build beside a running test suite.
+  outDir: process.env.ASTRO_OUT_DIR ?? './dist',
   adapter: node({ mode: 'standalone' }),
   integrations: [react(), auth(), chairsidePwa()],
   // Without allowedDomains Astro 5.18 ignores the Host header and its origin check
