@@ -3,7 +3,7 @@
  * type-checks, builds once, then runs the whole vitest suite against the build.
  */
 import { spawnSync } from 'node:child_process';
-import { existsSync } from 'node:fs';
+import { existsSync, mkdirSync, readFileSync, rmSync } from 'node:fs';
 import { resolve } from 'node:path';
 
 const root = resolve(import.meta.dirname, '..');
@@ -30,8 +30,21 @@ if (!existsSync(CHROMIUM)) {
 }
 
 const node = process.execPath;
+mkdirSync(resolve(root, 'test-results'), { recursive: true });
+rmSync(resolve(root, 'test-results/vitest.json'), { force: true });
 const bin = (p: string) => resolve(root, 'node_modules', p);
 const only = process.argv.slice(2);
 if (only.length === 0) run(node, [bin('astro/astro.js'), 'check']);
 run(node, [bin('astro/astro.js'), 'build']);
-run(node, [bin('vitest/vitest.mjs'), 'run', ...only]);
+const report = resolve(root, 'test-results/vitest.json');
+const vitest = spawnSync(
+  node,
+  [bin('vitest/vitest.mjs'), 'run', '--reporter=default', '--reporter=json', `--outputFile.json=${report}`, ...only],
+  { cwd: root, stdio: 'inherit' },
+);
+// One plain closing line that any CI can read, from vitest's own JSON report.
+if (existsSync(report)) {
+  const r = JSON.parse(readFileSync(report, 'utf8')) as { numPassedTests: number; numFailedTests: number; numPendingTests: number; numTodoTests: number };
+  console.log(`\n${r.numPassedTests} passed, ${r.numFailedTests} failed, ${r.numPendingTests + r.numTodoTests} skipped`);
+}
+process.exit(vitest.status ?? 1);
