@@ -3,8 +3,8 @@
 //
 // A field is a plain check, not a zod schema of its own: parseEvent runs on every synced event
 // (the server must take ≥ 10,000 a second) and zod 3 spends about 2 µs, and much garbage, on
-// each transform it runs; so events.ts reads all the fields of an event in one (see record.ts).
-import { z } from 'zod';
+// each transform it runs; so read.ts reads all the fields of an event in one pass (see record.ts).
+// No zod here: this file is part of the rules core the chairside island bundles (see core.ts).
 import { normaliseSize, SIZE_RULE_TEXT } from './sizes';
 import { isValidFdi } from './teeth';
 
@@ -95,9 +95,12 @@ const uuidCheck = (name: string): Check<string> => (v) =>
 export const uuid = (name: string) => field(name, uuidCheck(name));
 export const optionalUuid = (name: string) => optionalField(uuidCheck(name));
 
-// zod's own pattern for z.string().datetime({ offset: true }), built once: zod builds it anew
-// on every call, and that was the costliest single step of parsing an event.
-const ISO_INSTANT = z.datetimeRegex({ precision: null, offset: true, local: false });
+// zod 3's pattern for z.string().datetime({ offset: true }) (its datetimeRegex with precision
+// null, offset true, local false), written out so the browser need not load zod for it: a date
+// with leap years, hh:mm with optional seconds and fraction, then Z or ±hh[:]mm.
+// tests/lib/rules/parse-agreement.test.ts checks it is still the regex zod builds.
+export const ISO_INSTANT =
+  /^((\d\d[2468][048]|\d\d[13579][26]|\d\d0[48]|[02468][048]00|[13579][26]00)-02-29|\d{4}-((0[13578]|1[02])-(0[1-9]|[12]\d|3[01])|(0[469]|11)-(0[1-9]|[12]\d|30)|(02)-(0[1-9]|1\d|2[0-8])))T([01]\d|2[0-3]):[0-5]\d(:[0-5]\d(\.\d+)?)?(Z|([+-]\d{2}:?\d{2}))$/;
 /** An instant in ISO 8601 with a time zone (Z or an offset), kept as written. */
 export const instant = (name: string) =>
   field(name, (v): string | Invalid =>

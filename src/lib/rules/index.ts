@@ -1,22 +1,7 @@
 // Coneline's rules core: event schemas, checks, derived state, trade tables and calculators.
-// Pure TypeScript with zod as its only dependency; the same import runs in the browser and on the server.
-export { EVENT_TYPES, CASE_LEVEL_ONLY, CASE_OR_CANAL, eventSchema, SETTINGS, SEALERS, RADIOGRAPH_PURPOSES, FILL_LENGTHS } from './events';
-export type { EventType, LogEvent, EventOf, RadiographPurpose } from './events';
-export { SOLUTIONS } from './fields';
-export { parseEvent, canonicalEvent } from './parse';
+// Pure TypeScript with zod as its only dependency; the same import runs in the browser and on
+// the server. Browser code imports core.ts instead, which is all of this except the two zod
+// parts below.
+export * from './core';
+export { eventSchema } from './schema';
 export { formatZodError } from './errors';
-export { DEFAULT_TOLERANCES, TOLERANCE_SOURCES, resolveTolerances } from './tolerances';
-export type { Tolerances } from './tolerances';
-export { FINDINGS, FINDING_CODES, SAFETY_LINE } from './findings';
-export type { Severity, FindingCode, Finding, FindingInfo } from './findings';
-export { evaluateCanal } from './evaluate';
-export type { CanalResult } from './evaluate';
-export type { CanalState, CanalStatus } from './state';
-export { canalThirds, isCompactionComplete } from './thirds';
-export type { CanalThirds } from './thirds';
-export { ISO_SIZES, NON_STANDARD_SIZES, isIsoSize, isConeSize, normaliseSize, isoColour, tipDiameterMm, diameterAtMm } from './sizes';
-export type { IsoColourName } from './sizes';
-export { isValidFdi, fdiToUniversal, universalToFdi, toothGroup, toothName } from './teeth';
-export type { ToothGroup, ToothKind } from './teeth';
-export { usualCanals, referencePointsFor, averageLengthMm, SINGLE_CANAL } from './anatomy';
-export { workingLengthByDiscrepancy, workingLengthFromApexLocator, proportionalLength, stepBackSchedule, roundToHalf, roundToHundredth } from './calculators';

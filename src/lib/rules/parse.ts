@@ -1,18 +1,20 @@
-// Parsing one raw event, and its canonical form for duplicate detection.
-import { baseEventSchema, FUTURE_AT_MESSAGE, isTooFarAhead, type LogEvent } from './events';
-import { formatZodError } from './errors';
+// Parsing one raw event, and its canonical form for duplicate detection. No zod (see core.ts).
+import { FUTURE_AT_MESSAGE, isTooFarAhead, type LogEvent } from './events';
+import { readEvent } from './read';
 
 /**
  * Validates and normalises one raw event. Never throws: the error is one plain sentence
  * naming the field and what is allowed. `now` (default: this device's clock) is the clock
- * `at` may not run more than 24 h ahead of.
+ * `at` may not run more than 24 h ahead of. The sentence is the first problem's message,
+ * which is what formatZodError gives for the same event checked with eventSchema (every
+ * message is ours, never one of zod's generic ones).
  */
 export function parseEvent(raw: unknown, now: Date = new Date()): { ok: true; event: LogEvent } | { ok: false; error: string } {
   try {
-    const r = baseEventSchema.safeParse(raw);
-    if (!r.success) return { ok: false, error: formatZodError(r.error) };
-    if (isTooFarAhead(r.data.at, now)) return { ok: false, error: FUTURE_AT_MESSAGE };
-    return { ok: true, event: r.data };
+    const r = readEvent(raw);
+    if (!r.ok) return { ok: false, error: r.issues[0]?.message ?? 'the event is not valid' };
+    if (isTooFarAhead(r.event.at, now)) return { ok: false, error: FUTURE_AT_MESSAGE };
+    return r;
   } catch {
     // A getter or proxy in `raw` that throws: not an event we can read.
     return { ok: false, error: 'the event could not be read' };

@@ -1,5 +1,6 @@
 // How parseEvent reads the edges of an event. The rules core reads all fields of an event in
-// one zod transform (for speed); these pin what z.object over one schema per field did.
+// one pass of plain code (for speed, and so the browser need not load zod); these pin what
+// z.object over one schema per field did.
 import { describe, expect, it } from 'vitest';
 import { z } from 'zod';
 import { eventSchema, parseEvent } from '../../../src/lib/rules';

@@ -74,4 +74,15 @@ describe('the rules module', () => {
     const inputs = Object.keys(out.metafile.inputs);
     expect(inputs.filter((p) => !p.includes('src/lib/rules/') && !p.includes('node_modules/zod/'))).toEqual([]);
   });
+  // The chairside island imports core.ts; zod 3 would add about 14 KB gzipped to its budget.
+  it('bundles core.ts, the browser’s entry, without zod or anything else outside the module', async () => {
+    const { build } = await import('esbuild');
+    const out = await build({
+      entryPoints: [new URL('core.ts', dir).pathname], bundle: true, platform: 'browser', format: 'esm', write: false, metafile: true, logLevel: 'silent',
+    });
+    const inputs = Object.keys(out.metafile.inputs);
+    expect(inputs.filter((p) => p.includes('zod'))).toEqual([]);
+    expect(inputs.filter((p) => !p.includes('src/lib/rules/'))).toEqual([]);
+    expect(inputs.some((p) => p.endsWith('src/lib/rules/parse.ts'))).toBe(true);
+  });
 });
