@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { usualCanals } from '../../lib/rules/index';
+import { usualCanals } from '../../lib/rules/core';
 import { Answer, Answers, Chip, ChipGroup, StepCard } from './AnswerButtons';
 
 /** The canals to set up, proposed from the tooth's usual anatomy as toggles (editable). */

@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { averageLengthMm, ISO_SIZES, referencePointsFor } from '../../lib/rules/index';
+import { averageLengthMm, ISO_SIZES, referencePointsFor } from '../../lib/rules/core';
 import { newId } from '../../lib/client/ids';
 import { clampLength } from '../../lib/client/flow';
 import { useChairside } from '../../lib/client/store';

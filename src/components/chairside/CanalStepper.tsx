@@ -1,5 +1,5 @@
 import { useEffect, useMemo } from 'react';
-import type { LogEvent } from '../../lib/rules/index';
+import type { LogEvent } from '../../lib/rules/core';
 import type { CanalInfo, Setting } from '../../lib/client/events';
 import { nextCard, type Card } from '../../lib/client/flow';
 import { useChairside } from '../../lib/client/store';

@@ -1,5 +1,5 @@
 import { useMemo, useState } from 'react';
-import type { LogEvent } from '../../lib/rules/index';
+import type { LogEvent } from '../../lib/rules/core';
 import { describeEvent } from '../../lib/client/describe';
 import { liveEvents } from '../../lib/client/events';
 import { useChairside } from '../../lib/client/store';

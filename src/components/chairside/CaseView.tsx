@@ -1,5 +1,5 @@
 import { useMemo, useState } from 'react';
-import { evaluateCanal, type LogEvent } from '../../lib/rules/index';
+import { evaluateCanal, type LogEvent } from '../../lib/rules/core';
 import type { CanalInfo, CaseInfo } from '../../lib/client/events';
 import { useChairside } from '../../lib/client/store';
 import { CanalPicker } from './CanalPicker';

@@ -1,5 +1,5 @@
 import { useEffect, useMemo, useState } from 'react';
-import { SAFETY_LINE } from '../../lib/rules/index';
+import { SAFETY_LINE } from '../../lib/rules/core';
 import { canalsIn, casesIn } from '../../lib/client/events';
 import { registerServiceWorker } from '../../lib/client/pwa';
 import { useChairside } from '../../lib/client/store';

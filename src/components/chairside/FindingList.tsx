@@ -1,4 +1,4 @@
-import type { Finding, Severity } from '../../lib/rules/index';
+import type { Finding, Severity } from '../../lib/rules/core';
 
 const WORD: Record<Severity, string> = { stop: 'Stop', caution: 'Caution', note: 'Note' };
 const TEXT: Record<Severity, string> = { stop: 'text-stop', caution: 'text-caution', note: 'text-note' };

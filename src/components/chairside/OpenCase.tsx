@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { fdiToUniversal, toothName } from '../../lib/rules/index';
+import { fdiToUniversal, toothName } from '../../lib/rules/core';
 import { newId } from '../../lib/client/ids';
 import { useChairside } from '../../lib/client/store';
 import type { Setting } from '../../lib/client/events';

@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { ISO_SIZES } from '../../lib/rules/index';
+import { ISO_SIZES } from '../../lib/rules/core';
 import { IsoChip } from '../shared/IsoChip';
 import { Answer, Answers, Chip, ChipGroup, StepCard } from './AnswerButtons';
 import { mm, RulerStrip } from './RulerStrip';

@@ -1,5 +1,5 @@
 import { useMemo, useState } from 'react';
-import type { LogEvent } from '../../lib/rules/index';
+import type { LogEvent } from '../../lib/rules/core';
 import { field, liveEvents, type CanalInfo, type CaseInfo } from '../../lib/client/events';
 import { useChairside } from '../../lib/client/store';
 import { shownResult } from '../../lib/client/views';

@@ -1,4 +1,4 @@
-import { fdiToUniversal, toothName } from '../../lib/rules/index';
+import { fdiToUniversal, toothName } from '../../lib/rules/core';
 import type { CaseInfo } from '../../lib/client/events';
 import { useChairside } from '../../lib/client/store';
 import { SyncBadge } from './SyncBadge';

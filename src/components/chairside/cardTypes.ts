@@ -1,4 +1,4 @@
-import type { CanalState, LogEvent } from '../../lib/rules/index';
+import type { CanalState, LogEvent } from '../../lib/rules/core';
 import type { CanalInfo, Setting } from '../../lib/client/events';
 
 /** What every step card gets: the canal, its state, and a way to record an answer. */

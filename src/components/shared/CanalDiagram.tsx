@@ -1,4 +1,4 @@
-import type { CanalState } from '../../lib/rules/index';
+import type { CanalState } from '../../lib/rules/core';
 
 /** The parts of a canal's derived state the diagram draws (CanalState from the rules core). */
 export type DiagramState = Pick<

@@ -1,4 +1,4 @@
-import { isoColour } from '../../lib/rules/index';
+import { isoColour } from '../../lib/rules/core';
 
 /** An ISO size chip in the size's ISO colour with the number on it; designations plain. */
 export function IsoChip(props: { size: string; selected: boolean; onTap: () => void; testId?: string }) {

@@ -1,4 +1,4 @@
-import type { CanalResult, LogEvent } from '../rules/index';
+import type { CanalResult, LogEvent } from '../rules/core';
 import type { SyncResult } from './outbox';
 
 /** The signed-in user as `/api/me` answers it. */

@@ -1,5 +1,5 @@
 import { get, set, del, promisifyRequest } from 'idb-keyval';
-import type { CanalResult, LogEvent } from '../rules/index';
+import type { CanalResult, LogEvent } from '../rules/core';
 import { useStore, userRange } from './db';
 
 /**

@@ -1,5 +1,5 @@
 import { create } from 'zustand';
-import { parseEvent, type LogEvent } from '../rules/index';
+import { parseEvent, type LogEvent } from '../rules/core';
 import { fetchCase } from './api';
 import { newId } from './ids';
 import {

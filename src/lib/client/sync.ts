@@ -1,4 +1,4 @@
-import type { CanalResult, LogEvent } from '../rules/index';
+import type { CanalResult, LogEvent } from '../rules/core';
 import { fetchMe, postSync, type Answer, type Me, type SyncAnswer } from './api';
 import { applyResults, listQueued, putServerCanals, type StoredEvent } from './outbox';
 

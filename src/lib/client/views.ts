@@ -1,4 +1,4 @@
-import { evaluateCanal, type CanalResult, type LogEvent } from '../rules/index';
+import { evaluateCanal, type CanalResult, type LogEvent } from '../rules/core';
 import type { ServerCanal, StoredEvent } from './outbox';
 
 /** The events of one case that count on this tablet (rejected ones were never stored). */
