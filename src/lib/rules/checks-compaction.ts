@@ -1,5 +1,5 @@
 // Checks of lateral compaction: spreader placements and accessory cones.
-import { raise, type Finding } from './findings';
+import { raise, type Finding } from './severities';
 import { beyondMargin, fmtMm, gt, latestBefore, type CanalView } from './view';
 
 export function compactionChecks(v: CanalView): Finding[] {

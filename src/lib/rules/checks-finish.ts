@@ -1,5 +1,5 @@
 // Checks from the fill check to submission: compaction end, fill, sear-off, restoration.
-import { raise, type Finding } from './findings';
+import { raise, type Finding } from './severities';
 import { toothGroup } from './teeth';
 import { fmtMm, gt, latest, latestBefore, lt, type CanalView } from './view';
 

@@ -1,7 +1,7 @@
 // Checks up to the seated master cone: CWL, seat and taper checks, radiographs, rinse,
 // paper points and the master cone fit.
 import { averageLengthMm } from './anatomy';
-import { raise, type Finding } from './findings';
+import { raise, type Finding } from './severities';
 import { toothName } from './teeth';
 import { atLeast, beyondMargin, differs, fmtMm, gt, latest, latestBefore, type CanalView } from './view';
 

@@ -3,7 +3,7 @@ import { compactionChecks } from './checks-compaction';
 import { finishChecks } from './checks-finish';
 import { setupChecks } from './checks-setup';
 import type { LogEvent } from './events';
-import type { Finding, Severity } from './findings';
+import type { Finding, Severity } from './severities';
 import { deriveState, type CanalState } from './state';
 import { canalTimeline } from './timeline';
 import { resolveTolerances, type Tolerances } from './tolerances';
