@@ -311,6 +311,26 @@ describe('the chairside island for gloved hands', () => {
     await context.close();
   });
 
+  it('corrects the CWL from the canal card, and the next rulers centre on the new length', async () => {
+    const { context, page } = await newSession(1024, 768);
+    await setUpDistal36(page);
+    const d = new Driver(page);
+    await d.answer('seat', 'Seats and holds');
+    await d.card('taper');
+    // Set up at 20.5 mm: the taper ruler expects CWL − 1 = 19.5.
+    await expect(d.step().getByTestId('ruler').locator('button[data-mm="19.5"]').getAttribute('aria-label')).resolves.toContain('expected');
+    await page.getByRole('button', { name: 'Correct the CWL (20.5 mm)' }).click();
+    await page.getByRole('button', { name: 'apex locator' }).click();
+    await page.getByTestId('cwl-ruler').locator('button[data-mm="21.5"]').click();
+    await page.getByRole('button', { name: 'Correct the CWL (21.5 mm)' }).waitFor();
+    await expect(d.step().getByTestId('ruler').locator('button[data-mm="20.5"]').getAttribute('aria-label')).resolves.toContain('expected');
+    await page.getByRole('button', { name: /^Timeline/ }).click();
+    await expect(page.getByTestId('timeline').textContent()).resolves.toContain('CWL corrected to 21.5');
+    expect(await undersized(page)).toEqual([]);
+    expect(await seriousViolations(page)).toEqual([]);
+    await context.close();
+  });
+
   it.each([[768, 1024], [1024, 768], [1280, 800], [800, 1280]])(
     'keeps every control at least 56 px, passes axe, and lays out at %i × %i',
     async (width, height) => {

@@ -8,6 +8,7 @@ import { keepAwake } from '../../lib/client/wakeLock';
 import { CanalDiagram } from '../shared/CanalDiagram';
 import type { CardProps } from './cardTypes';
 import { CanalTimeline } from './CanalTimeline';
+import { CwlCorrection } from './CwlCorrection';
 import { FindingList, JustEntered } from './FindingList';
 import { AccessoryCard, RemoveCard, SpreaderCard } from './StepCardsCompaction';
 import { CleanCard, CompactCard, DoneCard, FillCard, SearCard } from './StepCardsFinish';
@@ -35,19 +36,22 @@ function renderCard(card: Card, p: CardProps, onFinishTooth: () => void, retake:
 
 /** The selected canal: its current step card, the value just entered with its verdict, findings, diagram. */
 export function CanalStepper(props: { canal: CanalInfo; setting: Setting; caseId: string; events: LogEvent[]; onFinishTooth: () => void }) {
-  const { canal, setting, caseId, events } = props;
+  const { setting, caseId, events } = props;
+  const canalId = props.canal.canalId;
   const rows = useChairside((s) => s.rows);
   const server = useChairside((s) => s.server);
-  const finished = useChairside((s) => s.marks.finished[canal.canalId] ?? false);
-  const replaceSpreader = useChairside((s) => s.replaceSpreader[canal.canalId] ?? false);
+  const finished = useChairside((s) => s.marks.finished[canalId] ?? false);
+  const replaceSpreader = useChairside((s) => s.replaceSpreader[canalId] ?? false);
   const last = useChairside((s) => s.last);
   const record = useChairside((s) => s.record);
 
-  useEffect(() => keepAwake(), [canal.canalId]);
+  useEffect(() => keepAwake(), [canalId]);
 
-  const shown = useMemo(() => shownResult(rows, server, events, caseId, canal.canalId), [rows, server, events, caseId, canal.canalId]);
+  const shown = useMemo(() => shownResult(rows, server, events, caseId, canalId), [rows, server, events, caseId, canalId]);
   const findings = shown.result?.findings ?? [];
   const state = shown.result?.state ?? null;
+  // The cards work to the current CWL: the set-up's, or the latest correction.
+  const canal = state && state.cwlMm !== props.canal.cwlMm ? { ...props.canal, cwlMm: state.cwlMm } : props.canal;
   const card = nextCard(events, canal.canalId, {
     setting,
     cwlMm: canal.cwlMm,
@@ -72,6 +76,7 @@ export function CanalStepper(props: { canal: CanalInfo; setting: Setting; caseId
         <div key={cardKey}>{renderCard(card, cardProps, props.onFinishTooth, findings.some((f) => f.code === 'cone-fit-retake-needed'))}</div>
         {lastHere && <JustEntered key={lastHere.eventId} label={lastHere.label} value={lastHere.value} findings={verdict} />}
         <FindingList findings={findings} source={shown.source} />
+        <CwlCorrection canalId={canal.canalId} cwlMm={canal.cwlMm} />
         <CanalTimeline canalId={canal.canalId} events={events} />
       </div>
       <aside aria-label={`Diagram of canal ${canal.name}`} className="bg-white rounded-2xl border border-line p-3 portrait:max-w-md">
