@@ -17,7 +17,8 @@ const localAddresses = Object.values(networkInterfaces())
 
 export default defineConfig({
   output: 'server',
-  // A second build folder lets a benchmark or an experiment build beside a running test suite.
+  // A second build folder (inside the project, so node_modules resolves from it, e.g.
+  // dist-bench) lets a benchmark or an experiment build beside a running test suite.
   outDir: process.env.ASTRO_OUT_DIR ?? './dist',
   adapter: node({ mode: 'standalone' }),
   integrations: [react(), auth(), chairsidePwa()],

@@ -38,7 +38,7 @@ export async function up(knex: Knex): Promise<void> {
     t.integer('student_id').notNullable().references('id').inTable('users');
     t.enu('setting', ['block', 'extracted', 'patient']).notNullable();
     t.integer('tooth');
-    t.string('chart_ref', 40);
+    t.string('chart_ref', 64);
     t.string('opened_at', 30).notNullable();
     t.string('submitted_at', 30);
     // open → submitted → approved | returned (a returned case may be submitted again).
