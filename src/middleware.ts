@@ -32,18 +32,30 @@ function withHeaders(res: Response): Response {
   return res;
 }
 
+/** Pages for a signed-in user hold health records: no copy in the browser's cache. */
+function noStore(res: Response): Response {
+  try {
+    res.headers.set('Cache-Control', 'no-store');
+  } catch {
+    // immutable headers (a redirect): nothing cached there anyway
+  }
+  return res;
+}
+
 export const onRequest = defineMiddleware(async (ctx, next) => {
   ctx.locals.user = null;
   if (ctx.isPrerendered) return next();
   const path = ctx.url.pathname;
   if (path.startsWith('/api/auth/')) return withHeaders(await next());
 
-  let user: SessionUser | null = null;
+  let session: Awaited<ReturnType<typeof getSession>> = null;
   try {
-    user = await userFromSession(await getSession(ctx.request));
+    session = await getSession(ctx.request);
   } catch {
-    user = null; // A malformed or foreign cookie is simply no session.
+    session = null; // A malformed or foreign cookie is simply no session.
   }
+  // Database faults are not "signed out": they surface as errors, so a tablet keeps its user.
+  const user = await userFromSession(session);
   ctx.locals.user = user;
 
   const isApi = path.startsWith('/api/');
@@ -59,7 +71,7 @@ export const onRequest = defineMiddleware(async (ctx, next) => {
   const gate = ROLE_GATES.find((g) => path === g.prefix || path.startsWith(g.prefix + '/'));
   if (gate && !gate.roles.includes(user.role)) {
     if (isApi) return withHeaders(jsonError(403, 'Your role may not do this.'));
-    return withHeaders(await ctx.rewrite('/forbidden'));
+    return noStore(withHeaders(await ctx.rewrite('/forbidden')));
   }
-  return withHeaders(await next());
+  return noStore(withHeaders(await next()));
 });

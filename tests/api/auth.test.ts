@@ -88,9 +88,11 @@ describe('the gate', () => {
     expect(await res.text()).toContain('not open to your role');
   });
 
-  it('lets a director open the administration page', async () => {
+  it('lets a director open the administration page, and tells the browser not to keep a copy', async () => {
     const api = await apiSignIn(server.baseUrl, DEMO.ingrid, DEMO.password);
-    expect((await api.fetch('/admin')).status).toBe(200);
+    const res = await api.fetch('/admin');
+    expect(res.status).toBe(200);
+    expect(res.headers.get('cache-control')).toBe('no-store');
   });
 
   it('shows each role its own home page', async () => {

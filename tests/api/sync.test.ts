@@ -175,6 +175,93 @@ describe('POST /api/sync', () => {
   });
 });
 
+describe('POST /api/sync, edge cases', () => {
+  it('stores a canal with more findings than SQLite takes in one insert', async () => {
+    const w = new EventWriter();
+    w.open();
+    const canal = w.canal('D', 18);
+    // 260 placements beyond the CWL before any seating: two findings each.
+    for (let i = 0; i < 260; i++) w.add('spreader.placed', { spreader: 'MF', depthMm: 19 }, canal);
+    const { status, body } = await sync(mira, w.events);
+    expect(status).toBe(200);
+    expect(body.results.every((r) => r.status === 'stored')).toBe(true);
+    expect(body.canals[0]!.findings.length).toBeGreaterThan(500);
+  });
+
+  it('refuses a batch whose outbox belongs to another account than the session\'s', async () => {
+    const w = new EventWriter();
+    w.open();
+    const me = (await (await mira.fetch('/api/me')).json()) as { id: number };
+    const wrong = await mira.post('/api/sync', { deviceId: 'tablet-test', userId: me.id + 1000, events: w.events });
+    expect(wrong.status).toBe(403);
+    expect(await wrong.json()).toMatchObject({ code: 'other-user' });
+    expect(await count(w.caseId)).toBe(0);
+    const right = await mira.post('/api/sync', { deviceId: 'tablet-test', userId: me.id, events: w.events });
+    expect(right.status).toBe(200);
+    expect(await count(w.caseId)).toBe(1);
+  });
+
+  it('takes a case out of the review queue when its submission is withdrawn', async () => {
+    const w = new EventWriter();
+    w.open('block');
+    w.textbook(w.canal('Main', 18), 18, 3);
+    const submitted = w.add('case.submitted');
+    await sync(mira, w.events);
+    expect((await k('cases').where({ id: w.caseId }).first()).review_status).toBe('submitted');
+    const undo = w.add('event.voided', { eventId: submitted.id, reason: 'tapped by mistake' });
+    const { body } = await sync(mira, [undo]);
+    expect(body.results[0]!.status).toBe('stored');
+    const row = await k('cases').where({ id: w.caseId }).first();
+    expect(row.review_status).toBe('open');
+    expect(row.submitted_at).toBeNull();
+    expect(body.canals[0]!.state.status).not.toBe('submitted');
+  });
+
+  it('answers a returned case\'s canals with the same status in the sync answer as on reading', async () => {
+    const w = new EventWriter();
+    w.open();
+    const canal = w.canal();
+    await sync(mira, w.events);
+    await k('cases').where({ id: w.caseId }).update({ review_status: 'returned' });
+    const { body } = await sync(mira, [w.add('note.added', { text: 'redone as asked' }, canal)]);
+    const read = await (await mira.fetch(`/api/canals/${canal}`)).json();
+    expect(body.canals[0]!.state.status).toBe('returned');
+    expect(body.canals[0]).toEqual(read);
+  });
+
+  it('rejects another student\'s event sent again, rather than calling it a duplicate', async () => {
+    const w = new EventWriter();
+    w.open();
+    await sync(mira, w.events);
+    const { body } = await sync(tomas, w.events);
+    expect(body.results[0]).toMatchObject({ status: 'rejected', error: 'this case is not yours to write' });
+  });
+
+  it('rejects a withdrawal that names an event outside its own canal', async () => {
+    const w = new EventWriter();
+    w.open();
+    const canal = w.canal();
+    const restored = w.add('access.restored', { kind: 'temporary' });
+    const wrongScope = w.add('event.voided', { eventId: restored.id, reason: 'wrong' }, canal);
+    const { body } = await sync(mira, w.events);
+    const r = body.results.find((x) => x.id === wrongScope.id)!;
+    expect(r.status).toBe('rejected');
+    expect(r.retry).toBeUndefined();
+  });
+
+  it('rejects for good a withdrawal whose target was refused in the same batch', async () => {
+    const w = new EventWriter();
+    w.open();
+    const canal = w.canal();
+    const bad = w.add('spreader.placed', { spreader: 'MF', depthMm: 99 }, canal);
+    const undo = w.add('event.voided', { eventId: bad.id, reason: 'typo' }, canal);
+    const { body } = await sync(mira, [undo, ...w.events.slice(0, -1)]);
+    const r = body.results.find((x) => x.id === undo.id)!;
+    expect(r).toMatchObject({ status: 'rejected' });
+    expect(r.retry).toBeUndefined();
+  });
+});
+
 describe('POST /api/sync answers', () => {
   const batch = () => ({ deviceId: 'x', events: [] as unknown[] });
 

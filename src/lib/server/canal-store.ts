@@ -57,18 +57,11 @@ export async function recomputeCanals(
       updated_at: k.fn.now(),
     });
     await k('findings').where({ canal_id: canalId }).delete();
-    if (result.findings.length > 0) {
-      await k('findings').insert(
-        result.findings.map((f) => ({
-          canal_id: canalId,
-          case_id: caseId,
-          code: f.code,
-          severity: f.severity,
-          event_id: f.eventId ?? null,
-          message: f.message,
-        })),
-      );
-    }
+    const rows = result.findings.map((f) => ({
+      canal_id: canalId, case_id: caseId, code: f.code, severity: f.severity, event_id: f.eventId ?? null, message: f.message,
+    }));
+    // SQLite takes at most 500 rows in one multi-row insert; a canal can have more findings.
+    for (let i = 0; i < rows.length; i += 100) await k('findings').insert(rows.slice(i, i + 100));
     out.push(result);
   }
   return out;
@@ -94,17 +87,24 @@ export async function storedCanal(k: Knex, canalId: string): Promise<CanalResult
     .select('code', 'severity', 'event_id', 'message')
     .where({ canal_id: canalId })
     .orderBy('id');
-  const state = JSON.parse(row.state_json) as CanalResult['state'] & { status: string };
-  if (row.review_status === 'approved' || row.review_status === 'returned') state.status = row.review_status as never;
-  return {
+  return withReviewStatus({
     canalId: row.id,
     caseId: row.case_id,
-    state,
+    state: JSON.parse(row.state_json) as CanalResult['state'],
     findings: findings.map((f: { code: string; severity: string; event_id: string | null; message: string }) => ({
       code: f.code,
       severity: f.severity,
       ...(f.event_id ? { eventId: f.event_id } : {}),
       message: f.message,
     })) as CanalResult['findings'],
-  };
+  }, row.review_status ?? 'open');
+}
+
+/**
+ * The canal as readers see it: the review states (approved, returned) come from the case's
+ * sign-offs, not from the events, and replace the rules' status (rules.md, derived state).
+ */
+export function withReviewStatus(result: CanalResult, reviewStatus: string): CanalResult {
+  if (reviewStatus !== 'approved' && reviewStatus !== 'returned') return result;
+  return { ...result, state: { ...result.state, status: reviewStatus as CanalResult['state']['status'] } };
 }

@@ -10,16 +10,14 @@ export function json(body: unknown, status = 200): Response {
 
 /**
  * Astro's origin check covers form bodies only, so JSON writes compare Origin themselves
- * (stack-notes.md). Same origin = the scheme, host and port the request came to.
+ * (stack-notes.md). Same origin = the scheme, host and port of the request as Astro resolved
+ * it from the allowed Host / X-Forwarded-* headers (astro.config.mjs, allowedDomains).
  */
 export function sameOrigin(request: Request): boolean {
   const origin = request.headers.get('origin');
   if (!origin) return false;
   try {
-    const o = new URL(origin);
-    const host = request.headers.get('x-forwarded-host') ?? request.headers.get('host');
-    if (!host) return false;
-    return o.host === host;
+    return new URL(origin).origin === new URL(request.url).origin;
   } catch {
     return false;
   }

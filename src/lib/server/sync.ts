@@ -5,7 +5,7 @@
  */
 import type { Knex } from 'knex';
 import { canonicalEvent, parseEvent, type CanalResult, type LogEvent } from '../rules/index';
-import { recomputeCanals } from './canal-store';
+import { recomputeCanals, withReviewStatus } from './canal-store';
 import { tolerances } from './settings';
 
 export type ItemResult =
@@ -23,9 +23,14 @@ interface KnownCase {
   review_status: string;
 }
 
-/** Order of processing inside a batch: cases, then canals, then everything else. */
+/**
+ * Order of processing inside a batch: cases, then canals, then steps, then the events that
+ * name another event (voids, withdrawn cones), so their targets in the batch are decided first.
+ */
 function rank(e: LogEvent): number {
-  return e.type === 'case.opened' ? 0 : e.type === 'canal.added' ? 1 : 2;
+  if (e.type === 'case.opened') return 0;
+  if (e.type === 'canal.added') return 1;
+  return typeof (e.data as { eventId?: unknown }).eventId === 'string' ? 3 : 2;
 }
 
 const CHUNK = 400;
@@ -54,17 +59,23 @@ export async function ingestBatch(
   const results: (ItemResult | undefined)[] = new Array(rawEvents.length);
   const parsed: { index: number; event: LogEvent; canonical: string }[] = [];
 
+  const parseRefused = new Set<string>();
   rawEvents.forEach((raw, index) => {
     const p = parseEvent(raw, now);
-    if (!p.ok) results[index] = { id: idOf(raw), status: 'rejected', error: p.error };
-    else parsed.push({ index, event: p.event, canonical: canonicalEvent(p.event) });
+    if (p.ok) {
+      parsed.push({ index, event: p.event, canonical: canonicalEvent(p.event) });
+      return;
+    }
+    const id = idOf(raw);
+    results[index] = { id, status: 'rejected', error: p.error };
+    if (id) parseRefused.add(id);
   });
 
   const tol = await tolerances(k);
   return k.transaction(async (trx) => {
     const ids = [...new Set(parsed.map((p) => p.event.id))];
     const existing = new Map(
-      (await selectIn<{ id: string; canonical: string }>(trx, 'events', ['id', 'canonical'], 'id', ids)).map((r) => [r.id, r.canonical]),
+      (await selectIn<{ id: string; canonical: string; user_id: number }>(trx, 'events', ['id', 'canonical', 'user_id'], 'id', ids)).map((r) => [r.id, r]),
     );
     const caseIds = [...new Set(parsed.map((p) => p.event.caseId))];
     const cases = new Map(
@@ -98,10 +109,18 @@ export async function ingestBatch(
 
     const reject = (index: number, id: string, error: string, retry = false) => {
       results[index] = retry ? { id, status: 'rejected', error, retry: true } : { id, status: 'rejected', error };
+      refused.add(id);
     };
 
+    const refused = new Set<string>(); // ids of this batch that were not kept
     for (const { index, event: e, canonical } of ordered) {
-      const prior = existing.get(e.id) ?? seen.get(e.id);
+      const stored = existing.get(e.id);
+      if (stored && stored.user_id !== userId) {
+        // Someone else's event: say nothing about it, not even that it exists.
+        reject(index, e.id, 'this case is not yours to write');
+        continue;
+      }
+      const prior = stored?.canonical ?? seen.get(e.id);
       if (prior !== undefined) {
         results[index] =
           prior === canonical
@@ -157,12 +176,20 @@ export async function ingestBatch(
         const ref = (e.data as { eventId?: unknown }).eventId;
         if (typeof ref === 'string') {
           const target = targets.get(ref);
+          if (!target && (refused.has(ref) || parseRefused.has(ref))) {
+            reject(index, e.id, 'the event it names was refused, so there is nothing to withdraw');
+            continue;
+          }
           if (!target) {
             reject(index, e.id, 'the event it withdraws is not on the server yet; it will be sent again', true);
             continue;
           }
           if (target.case_id !== e.caseId) {
             reject(index, e.id, 'eventId must name an event of the same case');
+            continue;
+          }
+          if (e.type === 'event.voided' && target.canal_id !== (e.canalId ?? null)) {
+            reject(index, e.id, 'a withdrawal must name an event of its own canal, or a case-level event when it is case-level');
             continue;
           }
           if (e.type === 'accessory.removed' && (target.type !== 'accessory.placed' || target.canal_id !== e.canalId)) {
@@ -197,8 +224,15 @@ export async function ingestBatch(
       const ids = which === 'all'
         ? ((await trx('canals').select('id').where({ case_id: caseId }).orderBy('id')) as { id: string }[]).map((r) => r.id)
         : [...which];
+      const results = await recomputeCanals(trx, caseId, ids, tol);
+      let review = (await trx('cases').select('review_status').where({ id: caseId }).first()) as { review_status: string };
+      // A withdrawn submission takes the case out of the review queue again.
+      if (which === 'all' && review.review_status === 'submitted' && results.length > 0 && !results.some((r) => r.state.status === 'submitted')) {
+        await trx('cases').where({ id: caseId }).update({ review_status: 'open', submitted_at: null });
+        review = { review_status: 'open' };
+      }
       await trx('cases').where({ id: caseId }).update({ updated_at: trx.fn.now() });
-      out.push(...(await recomputeCanals(trx, caseId, ids, tol)));
+      out.push(...results.map((r) => withReviewStatus(r, review.review_status)));
     }
     return { results: results.map((r, i) => r ?? { id: idOf(rawEvents[i]), status: 'rejected', error: 'not processed' }), canals: out };
   });

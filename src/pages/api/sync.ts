@@ -10,6 +10,9 @@ const MAX_EVENTS = 500;
 
 const batchSchema = z.object({
   deviceId: z.string().trim().min(1, 'deviceId is required').max(80, 'deviceId must be at most 80 characters'),
+  // The account the tablet's outbox belongs to. When given, a batch is refused under anyone
+  // else's session, so a sign-in in another tab mid-sync cannot take over the events.
+  userId: z.number({ invalid_type_error: 'userId must be a number' }).int().positive().optional(),
   events: z.array(z.unknown(), { required_error: 'events is required', invalid_type_error: 'events must be a list' }),
 });
 
@@ -39,6 +42,16 @@ export const POST: APIRoute = async ({ request, locals }) => {
   const batch = batchSchema.safeParse(raw);
   if (!batch.success) return jsonError(400, `Not a sync batch: ${batch.error.issues[0]?.message ?? 'wrong shape'}.`);
 
-  const answer = await ingestBatch(await db(), user.id, batch.data.deviceId, batch.data.events);
-  return json(answer);
+  if (batch.data.userId !== undefined && batch.data.userId !== user.id) {
+    return jsonError(403, 'These events belong to another account: sign in as that user to send them.', { code: 'other-user' });
+  }
+
+  try {
+    return json(await ingestBatch(await db(), user.id, batch.data.deviceId, batch.data.events));
+  } catch (err) {
+    // A database fault, not the batch: nothing was stored (one transaction). Log no values:
+    // SQL errors can carry event data such as chart numbers.
+    console.error(`[sync] batch of ${batch.data.events.length} events not stored: ${(err as { code?: string }).code ?? (err as Error).name}`);
+    return jsonError(500, 'The server could not store this batch; nothing was stored, and the tablet will send it again.');
+  }
 };
