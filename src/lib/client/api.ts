@@ -7,7 +7,7 @@ export interface Me { id: number; email?: string; name: string; role: 'student' 
 /** What came back: a value, "not signed in", or no answer at all (offline, server down). */
 export type Answer<T> =
   | { kind: 'ok'; value: T }
-  | { kind: 'status'; status: number; error?: string }
+  | { kind: 'status'; status: number; error?: string; code?: string }
   | { kind: 'offline'; error: string };
 
 async function call<T>(path: string, init?: RequestInit): Promise<Answer<T>> {
@@ -24,9 +24,9 @@ async function call<T>(path: string, init?: RequestInit): Promise<Answer<T>> {
       return { kind: 'status', status: res.status, error: 'The server sent something that is not JSON' };
     }
   }
-  let error: string | undefined;
-  try { error = ((await res.json()) as { error?: string }).error; } catch { /* no body */ }
-  return { kind: 'status', status: res.status, error };
+  let body: { error?: string; code?: string } = {};
+  try { body = (await res.json()) as { error?: string; code?: string }; } catch { /* no body */ }
+  return { kind: 'status', status: res.status, error: body.error, ...(body.code ? { code: body.code } : {}) };
 }
 
 export function fetchMe(): Promise<Answer<Me>> {
@@ -35,12 +35,12 @@ export function fetchMe(): Promise<Answer<Me>> {
 
 export interface SyncAnswer { results: SyncResult[]; canals: CanalResult[] }
 
-/** POST a batch; JSON content type is required by the server (it checks Origin too). */
-export function postSync(deviceId: string, events: LogEvent[]): Promise<Answer<SyncAnswer>> {
+/** POSTs a batch as JSON (the server requires it, and checks Origin too); `userId` (the outbox's owner) makes the server refuse it under anyone else's session. */
+export function postSync(deviceId: string, events: LogEvent[], userId?: number): Promise<Answer<SyncAnswer>> {
   return call<SyncAnswer>('/api/sync', {
     method: 'POST',
     headers: { 'Content-Type': 'application/json' },
-    body: JSON.stringify({ deviceId, events }),
+    body: JSON.stringify(userId === undefined ? { deviceId, events } : { deviceId, userId, events }),
   });
 }
 

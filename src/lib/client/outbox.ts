@@ -139,11 +139,13 @@ export function delMeta(key: IDBValidKey): Promise<void> {
 }
 
 /**
- * Remove everything this tablet holds for one user — only when nothing is left to send.
- * Returns false (and removes nothing) while the user still has queued events.
+ * Remove everything this tablet holds for one user — only when nothing is left to send or to
+ * read. Returns false (and removes nothing) while the user still has queued events, or
+ * refused ones whose reason they have not yet seen and dismissed.
  */
 export async function clearUserIfSynced(userId: number): Promise<boolean> {
-  if ((await countQueued(userId)) > 0) return false;
+  const unsettled = (await listEvents(userId)).some((r) => r.state === 'queued' || r.state === 'rejected');
+  if (unsettled) return false;
   const range = userRange(userId);
   await events()('readwrite', (store) => { store.delete(range); return promisifyRequest(store.transaction); });
   await server()('readwrite', (store) => { store.delete(range); return promisifyRequest(store.transaction); });

@@ -45,6 +45,11 @@ export async function resolveIdentity(): Promise<Identity> {
   return last ? { user: last, source: 'tablet', signedOut: false } : { user: null, source: null, signedOut: false };
 }
 
+/** After a sign-out anywhere in this browser: nobody works offline as that user any more. */
+export function forgetLastUser(): Promise<void> {
+  return delMeta(LAST_USER);
+}
+
 /**
  * Prepare to sign out: forget the user as "the one working offline" and clear their data
  * when nothing is left to send. Returns the number of unsent events kept on the tablet.

@@ -10,12 +10,12 @@ export type SyncOutcome =
   | { kind: 'done'; sent: number; stored: number; rejected: number; retry: number; canals: CanalResult[] }
   | { kind: 'offline' }
   | { kind: 'signed-out' }
-  | { kind: 'other-user'; signedInId: number }
+  | { kind: 'other-user'; signedInId?: number }
   | { kind: 'error'; status: number; error?: string };
 
 export interface SyncDeps {
   whoIsSignedIn: () => Promise<Answer<Me>>;
-  post: (deviceId: string, events: LogEvent[]) => Promise<Answer<SyncAnswer>>;
+  post: (deviceId: string, events: LogEvent[], userId: number) => Promise<Answer<SyncAnswer>>;
 }
 const realDeps: SyncDeps = { whoIsSignedIn: fetchMe, post: postSync };
 
@@ -56,7 +56,7 @@ export async function syncOnce(userId: number, deviceId: string, deps: SyncDeps 
   const pending = toBatches(queued, maxEvents);
   while (pending.length > 0) {
     const batch = pending.shift()!;
-    const answer = await deps.post(deviceId, batch);
+    const answer = await deps.post(deviceId, batch, userId);
     if (answer.kind === 'offline') return { kind: 'offline' };
     if (answer.kind === 'status') {
       if (answer.status === 413 && batch.length > 1) {
@@ -66,6 +66,8 @@ export async function syncOnce(userId: number, deviceId: string, deps: SyncDeps 
         continue;
       }
       if (answer.status === 401) return { kind: 'signed-out' };
+      // Someone else signed in mid-sync (another tab): the server refused, nothing was stored.
+      if (answer.status === 403 && answer.code === 'other-user') return { kind: 'other-user' };
       return { kind: 'error', status: answer.status, error: answer.error };
     }
     const { results, canals: touched } = answer.value;

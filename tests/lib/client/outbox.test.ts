@@ -4,7 +4,7 @@ import { beforeEach, describe, expect, it } from 'vitest';
 import type { LogEvent } from '../../../src/lib/rules/index';
 import { closeDb } from '../../../src/lib/client/db';
 import {
-  applyResults, clearUserIfSynced, countQueued, importSynced, listEvents, listQueued, listServerCanals, putEvent, putServerCanals,
+  applyResults, clearUserIfSynced, countQueued, dismissRejected, importSynced, listEvents, listQueued, listServerCanals, putEvent, putServerCanals,
 } from '../../../src/lib/client/outbox';
 
 let n = 0;
@@ -56,6 +56,18 @@ describe('clearUserIfSynced', () => {
     expect(await listEvents(1)).toEqual([]);
     expect(await listServerCanals(1)).toEqual([]);
     expect(await countQueued(2)).toBe(1);
+  });
+});
+
+describe('clearUserIfSynced with refused events', () => {
+  it('keeps a user\'s data while a refused event waits to be read and dismissed', async () => {
+    const a = event();
+    await putEvent(4, a);
+    await applyResults(4, [{ id: a.id, status: 'rejected', error: 'depthMm must be a multiple of 0.5 mm' }]);
+    expect(await countQueued(4)).toBe(0);
+    expect(await clearUserIfSynced(4)).toBe(false);
+    await dismissRejected(4, a.id);
+    expect(await clearUserIfSynced(4)).toBe(true);
   });
 });
 

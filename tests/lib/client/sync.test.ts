@@ -29,6 +29,21 @@ describe('syncOnce', () => {
     expect(await listQueued(1)).toHaveLength(1);
   });
 
+  it('names the outbox\'s owner in every batch, and stops with the outbox intact when the server says the session is someone else\'s', async () => {
+    for (let i = 0; i < 2; i++) await putEvent(1, event());
+    const owners: number[] = [];
+    const out = await syncOnce(1, 'tablet-1', {
+      whoIsSignedIn: me(1),
+      post: async (_d, _e, userId) => {
+        owners.push(userId);
+        return { kind: 'status', status: 403, error: 'These events belong to another account', code: 'other-user' };
+      },
+    });
+    expect(owners).toEqual([1]);
+    expect(out).toEqual({ kind: 'other-user' });
+    expect(await listQueued(1)).toHaveLength(2);
+  });
+
   it('keeps the outbox intact when the network drops mid-sync', async () => {
     for (let i = 0; i < 3; i++) await putEvent(1, event());
     const out = await syncOnce(1, 'tablet-1', { whoIsSignedIn: me(1), post: async () => ({ kind: 'offline', error: 'Failed to fetch' }) });
