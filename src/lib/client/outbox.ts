@@ -90,6 +90,25 @@ export function applyResults(userId: number, results: SyncResult[]): Promise<voi
   });
 }
 
+/**
+ * A withdrawal (a void, a removed cone) of an event the server refused can never be stored:
+ * the server would ask for it again forever. Mark such events refused here, with the reason.
+ */
+export async function refuseOrphans(userId: number): Promise<number> {
+  const rows = await listEvents(userId);
+  const refused = new Set(rows.filter((r) => r.state === 'rejected').map((r) => r.event.id));
+  const orphans = rows.filter((r) => {
+    const target = (r.event.data as { eventId?: unknown }).eventId;
+    return r.state === 'queued' && typeof target === 'string' && refused.has(target);
+  });
+  if (orphans.length === 0) return 0;
+  await events()('readwrite', (store) => {
+    for (const row of orphans) store.put({ ...row, state: 'rejected', error: 'The answer it withdraws was refused, so there is nothing to withdraw.' }, [userId, row.event.id]);
+    return promisifyRequest(store.transaction);
+  });
+  return orphans.length;
+}
+
 /** Keep events fetched from the server (a case restored onto this tablet) as synced. */
 export function importSynced(userId: number, list: LogEvent[]): Promise<void> {
   return events()('readwrite', (store) => {

@@ -1,6 +1,6 @@
 import type { CanalResult, LogEvent } from '../rules/core';
 import { fetchMe, postSync, type Answer, type Me, type SyncAnswer } from './api';
-import { applyResults, listQueued, putServerCanals, type StoredEvent } from './outbox';
+import { applyResults, listQueued, putServerCanals, refuseOrphans, type StoredEvent } from './outbox';
 
 /** The server takes at most 500 events and 1 MB per batch (sync-contract.md). */
 export const MAX_BATCH_EVENTS = 500;
@@ -44,6 +44,7 @@ export function toBatches(rows: StoredEvent[], maxEvents = MAX_BATCH_EVENTS, max
  * out under another's session.
  */
 export async function syncOnce(userId: number, deviceId: string, deps: SyncDeps = realDeps): Promise<SyncOutcome> {
+  await refuseOrphans(userId);
   const queued = await listQueued(userId);
   const me = await deps.whoIsSignedIn();
   if (me.kind === 'offline') return { kind: 'offline' };

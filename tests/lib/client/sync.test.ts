@@ -44,6 +44,19 @@ describe('syncOnce', () => {
     expect(await listQueued(1)).toHaveLength(2);
   });
 
+  it('does not send for ever a withdrawal of an answer the server refused', async () => {
+    const bad = event();
+    await putEvent(1, bad);
+    await syncOnce(1, 'tablet-1', { whoIsSignedIn: me(1), post: async () => ({ kind: 'ok', value: { results: [{ id: bad.id, status: 'rejected', error: 'depthMm must be a multiple of 0.5 mm' }], canals: [] } }) });
+    const undo = { ...event(), type: 'event.voided', data: { eventId: bad.id, reason: 'undo' } } as unknown as LogEvent;
+    await putEvent(1, undo);
+    const sent: string[] = [];
+    await syncOnce(1, 'tablet-1', { whoIsSignedIn: me(1), post: async (_d, batch) => { sent.push(...batch.map((e) => e.id)); return { kind: 'ok', value: { results: [], canals: [] } }; } });
+    expect(sent).toEqual([]);
+    const row = (await listEvents(1)).find((r) => r.event.id === undo.id);
+    expect(row).toMatchObject({ state: 'rejected' });
+  });
+
   it('keeps the outbox intact when the network drops mid-sync', async () => {
     for (let i = 0; i < 3; i++) await putEvent(1, event());
     const out = await syncOnce(1, 'tablet-1', { whoIsSignedIn: me(1), post: async () => ({ kind: 'offline', error: 'Failed to fetch' }) });
