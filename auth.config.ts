@@ -6,12 +6,16 @@ import { defineConfig } from 'auth-astro';
 import { config } from './src/lib/server/config';
 import { db } from './src/lib/server/db';
 import { checkPassword } from './src/lib/server/users';
+import { clearFailures, isThrottled, recordFailure } from './src/lib/server/throttle';
 
 class MissingFields extends CredentialsSignin {
   override code = 'missing';
 }
 class WrongCredentials extends CredentialsSignin {
   override code = 'credentials';
+}
+class Throttled extends CredentialsSignin {
+  override code = 'throttled';
 }
 
 export default defineConfig({
@@ -27,8 +31,13 @@ export default defineConfig({
         const email = typeof credentials?.email === 'string' ? credentials.email.trim() : '';
         const password = typeof credentials?.password === 'string' ? credentials.password : '';
         if (!email || !password) throw new MissingFields();
+        if (isThrottled(email)) throw new Throttled();
         const user = await checkPassword(await db(), email, password);
-        if (!user) throw new WrongCredentials();
+        if (!user) {
+          recordFailure(email);
+          throw new WrongCredentials();
+        }
+        clearFailures(email);
         return { id: String(user.id), email: user.email, name: user.name, role: user.role, sv: user.session_version };
       },
     }),

@@ -3,6 +3,7 @@ import knexFactory from 'knex';
 import { startServer, type TestServer } from '../helpers/server';
 import { anonymous, apiSignIn, DEMO } from '../helpers/client';
 import { sqliteOptions } from '../../src/lib/server/knex-options';
+import { hashPassword } from '../../src/lib/server/users';
 
 let server: TestServer;
 beforeAll(async () => {
@@ -56,6 +57,27 @@ describe('signing in', () => {
     const to = new URL(res.headers.get('location')!, server.baseUrl);
     expect(to.searchParams.get('code')).toBe('missing');
     expect(await (await fetch(to)).text()).toContain('Enter both your e-mail address and your password.');
+  });
+
+  it('refuses further attempts on an account after five failures, even with the right password', async () => {
+    const email = 'guessed.at@larkfield.example';
+    const k = knexFactory(sqliteOptions(server.dbFile));
+    try {
+      await k('users').insert({ email, name: 'Guessed At', role: 'student', password_hash: await hashPassword(DEMO.password) });
+    } finally {
+      await k.destroy();
+    }
+    await expect(apiSignIn(server.baseUrl, email, DEMO.password)).resolves.toBeDefined();
+    for (let i = 0; i < 5; i++) {
+      const res = await postSignIn({ email, password: `wrong-guess-${i}` });
+      expect(new URL(res.headers.get('location')!, server.baseUrl).searchParams.get('code')).toBe('credentials');
+    }
+    const locked = await postSignIn({ email, password: DEMO.password });
+    const to = new URL(locked.headers.get('location')!, server.baseUrl);
+    expect(to.searchParams.get('code')).toBe('throttled');
+    expect(await (await fetch(to)).text()).toContain('Too many failed attempts');
+    // Other accounts are not affected.
+    await expect(apiSignIn(server.baseUrl, DEMO.helen, DEMO.password)).resolves.toBeDefined();
   });
 
   it('refuses a form post from another site (origin check)', async () => {
