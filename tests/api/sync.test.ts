@@ -249,6 +249,18 @@ describe('POST /api/sync, edge cases', () => {
     expect(r.retry).toBeUndefined();
   });
 
+  it('asks again later for a withdrawal whose target must itself be sent again', async () => {
+    const w = new EventWriter();
+    w.open();
+    const canal = w.canal();
+    const step = w.add('seat.checked', { fileSize: '35', lengthMm: 21, result: 'seated' }, canal);
+    const undo = w.add('event.voided', { eventId: step.id, reason: 'tapped by mistake' }, canal);
+    const first = await sync(mira, [step, undo]);
+    expect(first.body.results.map((r) => r.retry)).toEqual([true, true]);
+    const again = await sync(mira, w.events);
+    expect(again.body.results.every((r) => r.status === 'stored')).toBe(true);
+  });
+
   it('rejects for good a withdrawal whose target was refused in the same batch', async () => {
     const w = new EventWriter();
     w.open();
