@@ -57,6 +57,19 @@ describe('signing in in Chromium', () => {
     await context.close();
   });
 
+  it('lets an attending open a student\'s case from the queue and read each canal', async () => {
+    const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    const page = await context.newPage();
+    await signIn(page, server.baseUrl, DEMO.helen, DEMO.password);
+    await page.getByRole('link', { name: /Open the case of tooth 21/ }).click();
+    await page.getByRole('heading', { name: /Tooth 21/ }).waitFor();
+    await expect(page.getByRole('heading', { name: /^Canal / }).count()).resolves.toBe(1);
+    await expect(page.getByText('Coneline records and checks lengths').count()).resolves.toBeGreaterThan(0);
+    expect(await seriousViolations(page)).toEqual([]);
+    await page.screenshot({ path: 'test-results/case-attending.png', fullPage: true });
+    await context.close();
+  });
+
   it('signs out with one button and lands on the sign-in page', async () => {
     const context = await browser.newContext();
     const page = await context.newPage();

@@ -71,5 +71,8 @@ export async function caseDetail(k: Knex, user: SessionUser, caseId: string): Pr
     const c = await storedCanal(k, id);
     if (c) canals.push(c);
   }
+  // In the order the canals were set up, as the student met them.
+  const setUp = events.filter((e) => e.type === 'canal.added').map((e) => e.canalId);
+  canals.sort((a, b) => setUp.indexOf(a.canalId) - setUp.indexOf(b.canalId));
   return { caseId, case: row, events, canals };
 }
