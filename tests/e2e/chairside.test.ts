@@ -5,6 +5,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { launchBrowser, launchPersistent, signIn } from '../helpers/browser';
 import { DEMO } from '../helpers/client';
 import { startServer, type TestServer } from '../helpers/server';
+import knexFactory from 'knex';
+import { sqliteOptions } from '../../src/lib/server/knex-options';
 
 // Invented scenario: an extracted lower left first molar (36), distal canal, CWL 20.5 mm,
 // MAF 35, orifice 9.0 mm from the reference point (so a spreader at 12.5 mm no longer passes
@@ -328,6 +330,57 @@ describe('the chairside island for gloved hands', () => {
     await expect(page.getByTestId('timeline').textContent()).resolves.toContain('CWL corrected to 21.5');
     expect(await undersized(page)).toEqual([]);
     expect(await seriousViolations(page)).toEqual([]);
+    await context.close();
+  });
+
+  it('shows an answer the server refused, with its reason, until the student dismisses it', async () => {
+    const { context, page } = await newSession(1024, 768);
+    await setUpDistal36(page);
+    const d = new Driver(page);
+    await d.answer('seat', 'Seats and holds');
+    await page.locator('[data-testid="sync-state"][data-state="synced"]').waitFor({ timeout: 30_000 });
+    // Meanwhile the case is signed off on the server: it takes no more answers.
+    const k = knexFactory(sqliteOptions(server.dbFile));
+    try {
+      const row = (await k('cases').join('users', 'users.id', 'cases.student_id').where('users.email', DEMO.priya)
+        .orderBy('cases.opened_at', 'desc').first('cases.id')) as { id: string };
+      await k('cases').where({ id: row.id }).update({ review_status: 'approved' });
+    } finally {
+      await k.destroy();
+    }
+    await d.ruler('taper', 19.5);
+    const refused = page.getByTestId('rejected');
+    await refused.waitFor({ timeout: 30_000 });
+    await expect(refused.textContent()).resolves.toContain('signed off');
+    await expect(refused.textContent()).resolves.toContain('Taper check');
+    expect(await undersized(page)).toEqual([]);
+    expect(await seriousViolations(page)).toEqual([]);
+    await refused.getByRole('button', { name: 'Dismiss' }).click();
+    await expect(page.getByTestId('rejected').count()).resolves.toBe(0);
+    await context.close();
+  });
+
+  it('opens a patient\'s tooth by chart number, the only typed entry', async () => {
+    const { context, page } = await newSession(768, 1024);
+    await page.getByTestId('new-case').click();
+    await page.getByRole('button', { name: 'Patient' }).click();
+    await page.getByTestId('quadrant-2').click();
+    await page.getByTestId('tooth-21').click();
+    await page.getByRole('textbox', { name: 'Chart number' }).fill('  TST-5521 ');
+    await page.getByRole('button', { name: 'Open case' }).click();
+    await page.getByTestId('canals-confirm').click();
+    await page.getByTestId('ruler-cwl').locator('button[data-mm="22.5"]').click();
+    await page.getByTestId('maf-50').click();
+    await page.getByTestId('save-canal').click();
+    await page.locator('[data-testid="step"][data-card="seat"]').waitFor();
+    await page.locator('[data-testid="sync-state"][data-state="synced"]').waitFor({ timeout: 30_000 });
+    const k = knexFactory(sqliteOptions(server.dbFile));
+    try {
+      const row = await k('cases').where({ chart_ref: 'TST-5521' }).first('setting', 'tooth');
+      expect(row).toEqual({ setting: 'patient', tooth: 21 });
+    } finally {
+      await k.destroy();
+    }
     await context.close();
   });
 

@@ -1,6 +1,7 @@
 import { useMemo } from 'react';
 import { useChairside } from '../../lib/client/store';
 import { rejectedIn } from '../../lib/client/views';
+import { describeEvent } from '../../lib/client/describe';
 
 /** Events the server did not accept stay visible with its reason until the student dismisses them. */
 export function RejectedList({ caseId }: { caseId: string | null }) {
@@ -14,7 +15,7 @@ export function RejectedList({ caseId }: { caseId: string | null }) {
       <ul className="flex flex-col gap-2 mt-2">
         {rejected.map((r) => (
           <li key={r.event.id} className="flex flex-wrap items-center gap-3">
-            <span className="text-base"><span className="font-bold">{r.event.type}</span> at {new Date(r.event.at).toLocaleTimeString()}: {r.error}</span>
+            <span className="text-base"><span className="font-bold">{describeEvent(r.event)}</span> at {new Date(r.event.at).toLocaleTimeString()}: {r.error}</span>
             <button type="button" onClick={() => void dismiss(r.event.id)} className="min-h-14 min-w-14 px-3 rounded-lg border-2 border-ink bg-white font-bold">Dismiss</button>
           </li>
         ))}
