@@ -54,7 +54,8 @@ const tls = https ? await tlsEnv(root) : {};
 const server = spawn(process.execPath, [resolve(root, 'dist/server/entry.mjs')], {
   cwd: root,
   stdio: 'inherit',
-  env: { ...process.env, ...standIns.env, ...tls, HOST: host, PORT: port },
+  // The build is a production build: React and Astro pick their fast paths from NODE_ENV.
+  env: { ...process.env, ...standIns.env, ...tls, HOST: host, PORT: port, NODE_ENV: 'production' },
 });
 const scheme = https ? 'https' : 'http';
 console.log(`Coneline: ${scheme}://localhost:${port}  (demo password: coneline-demo-2026)`);

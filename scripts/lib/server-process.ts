@@ -55,7 +55,8 @@ export async function startServer(opts: { templateDb?: string; env?: Record<stri
   const child: ChildProcess = spawn(process.execPath, [...nodeArgs, ENTRY], {
     cwd: ROOT,
     env: {
-      ...process.env, HOST: '127.0.0.1', PORT: String(port), DB_FILE: dbFile, DATA_DIR: dir,
+      // Vitest sets NODE_ENV=test; the built server runs as in production.
+      ...process.env, NODE_ENV: 'production', HOST: '127.0.0.1', PORT: String(port), DB_FILE: dbFile, DATA_DIR: dir,
       AUTH_SECRET: 'local-run-secret-local-run-secret-0123456789', ...opts.env,
     },
     stdio: ['ignore', 'pipe', 'pipe'],

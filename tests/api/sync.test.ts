@@ -217,6 +217,16 @@ describe('POST /api/sync, edge cases', () => {
     expect(body.canals[0]!.state.status).not.toBe('submitted');
   });
 
+  it('leaves a case out of the queue when its submission and the withdrawal come in one batch', async () => {
+    const w = new EventWriter();
+    w.open('block');
+    w.textbook(w.canal('Main', 18), 18, 3);
+    const submitted = w.add('case.submitted');
+    w.add('event.voided', { eventId: submitted.id, reason: 'tapped by mistake' });
+    await sync(mira, w.events);
+    expect((await k('cases').where({ id: w.caseId }).first()).review_status).toBe('open');
+  });
+
   it('answers a returned case\'s canals with the same status in the sync answer as on reading', async () => {
     const w = new EventWriter();
     w.open();

@@ -70,19 +70,26 @@ async function loadKnown(trx: Knex, userId: number, parsed: Parsed[], refused: S
   };
 }
 
-/** Recomputes the touched canals of one case and answers them as readers see them. */
-async function recomputeCase(trx: Knex, caseId: string, which: Set<string> | 'all', tol: Tolerances): Promise<CanalResult[]> {
+/**
+ * Recomputes the touched canals of one case and answers them as readers see them; keeps the
+ * case's review status in step (a new submission queues it, a withdrawn one takes it out).
+ */
+async function recomputeCase(trx: Knex, c: KnownCase, which: Set<string> | 'all', submitted: boolean, tol: Tolerances, at: string): Promise<CanalResult[]> {
   const ids = which === 'all'
-    ? ((await trx('canals').select('id').where({ case_id: caseId }).orderBy('id')) as { id: string }[]).map((r) => r.id)
+    ? ((await trx('canals').select('id').where({ case_id: c.id }).orderBy('id')) as { id: string }[]).map((r) => r.id)
     : [...which];
-  const out = await recomputeCanals(trx, caseId, ids, tol);
-  let { review_status: review } = (await trx('cases').select('review_status').where({ id: caseId }).first()) as { review_status: string };
-  // A withdrawn submission takes the case out of the review queue again.
-  if (which === 'all' && review === 'submitted' && out.length > 0 && !out.some((r) => r.state.status === 'submitted')) {
-    await trx('cases').where({ id: caseId }).update({ review_status: 'open', submitted_at: null });
-    review = 'open';
+  const out = await recomputeCanals(trx, c.id, ids, tol);
+  // Whether a submission stands once voids are applied (the rules' status says so; a case
+  // with no canal yet has only the new event to go by).
+  const live = out.length > 0 ? out.some((r) => r.state.status === 'submitted') : submitted;
+  const change: Record<string, unknown> = { updated_at: trx.fn.now() };
+  if (submitted && live && (c.review_status === 'open' || c.review_status === 'returned')) {
+    Object.assign(change, { review_status: 'submitted', submitted_at: at });
+  } else if (which === 'all' && c.review_status === 'submitted' && !live) {
+    Object.assign(change, { review_status: 'open', submitted_at: null });
   }
-  await trx('cases').where({ id: caseId }).update({ updated_at: trx.fn.now() });
+  await trx('cases').where({ id: c.id }).update(change);
+  const review = (change.review_status as string | undefined) ?? c.review_status;
   return out.map((r) => withReviewStatus(r, review));
 }
 
@@ -150,12 +157,10 @@ export async function ingestBatch(
 
     // 250 rows × 10 columns stays well under SQLite's limits on one insert.
     for (let i = 0; i < toInsert.length; i += 250) await trx('events').insert(toInsert.slice(i, i + 250));
-    for (const caseId of submittedCases) {
-      await trx('cases').where({ id: caseId }).whereIn('review_status', ['open', 'returned'])
-        .update({ review_status: 'submitted', submitted_at: receivedAt, updated_at: trx.fn.now() });
-    }
     const canals: CanalResult[] = [];
-    for (const [caseId, which] of touched) canals.push(...(await recomputeCase(trx, caseId, which, tol)));
+    for (const [caseId, which] of touched) {
+      canals.push(...(await recomputeCase(trx, known.cases.get(caseId)!, which, submittedCases.has(caseId), tol, receivedAt)));
+    }
     return { results: results.map((r, i) => r ?? { id: idOf(rawEvents[i]), status: 'rejected', error: 'not processed' }), canals };
   });
 }
