@@ -1,7 +1,7 @@
 // Session into Astro.locals and a coarse gate; every handler still authorises the data it
 // touches (conventions.md).
 import { defineMiddleware } from 'astro:middleware';
-import { getSession } from 'auth-astro/server';
+import { sessionOf } from './lib/server/session-cache';
 import { userFromSession } from './lib/server/session';
 import { jsonError } from './lib/server/http';
 
@@ -48,9 +48,9 @@ export const onRequest = defineMiddleware(async (ctx, next) => {
   const path = ctx.url.pathname;
   if (path.startsWith('/api/auth/')) return withHeaders(await next());
 
-  let session: Awaited<ReturnType<typeof getSession>> = null;
+  let session: Awaited<ReturnType<typeof sessionOf>> = null;
   try {
-    session = await getSession(ctx.request);
+    session = await sessionOf(ctx.request);
   } catch {
     session = null; // A malformed or foreign cookie is simply no session.
   }
