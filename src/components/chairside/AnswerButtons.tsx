@@ -52,7 +52,7 @@ export function Chip(props: {
       onClick={props.onTap}
       style={props.style}
       className={`min-h-14 min-w-14 px-4 rounded-lg border-2 text-lg font-bold ${
-        props.selected ? 'border-ink ring-4 ring-gutta' : 'border-line'
+        props.selected ? 'border-ink ring-4 ring-gutta' : 'border-edge'
       } ${props.style ? '' : props.selected ? 'bg-ink text-white' : 'bg-white text-ink'}`}
     >
       {props.selected && <span aria-hidden="true">✓ </span>}

@@ -25,7 +25,7 @@ export function TopBar(props: { info: CaseInfo | null; onCases: () => void; onSi
           </p>
           {info.tooth && (
             <button type="button" aria-pressed={showUniversal} onClick={toggleUniversal}
-              className="min-h-14 min-w-14 px-3 rounded-lg border-2 border-line bg-white text-base">
+              className="min-h-14 min-w-14 px-3 rounded-lg border-2 border-edge bg-white text-base">
               Universal
             </button>
           )}
