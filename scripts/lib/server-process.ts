@@ -41,7 +41,7 @@ export function freePort(): Promise<number> {
 }
 
 /** Starts the server on a copy of `templateDb` (a migrated database), or on an empty file. */
-export async function startServer(opts: { templateDb?: string; env?: Record<string, string> } = {}): Promise<TestServer> {
+export async function startServer(opts: { templateDb?: string; env?: Record<string, string>; entry?: string } = {}): Promise<TestServer> {
   const dir = mkdtempSync(join(tmpdir(), 'coneline-test-'));
   const dbFile = join(dir, 'coneline.sqlite');
   if (opts.templateDb) {
@@ -52,7 +52,7 @@ export async function startServer(opts: { templateDb?: string; env?: Record<stri
   let log = '';
     // SERVER_NODE_ARGS, e.g. "--cpu-prof --cpu-prof-dir=/tmp/prof", for profiling a benchmark.
   const nodeArgs = (process.env.SERVER_NODE_ARGS ?? '').split(' ').filter(Boolean);
-  const child: ChildProcess = spawn(process.execPath, [...nodeArgs, ENTRY], {
+  const child: ChildProcess = spawn(process.execPath, [...nodeArgs, opts.entry ?? ENTRY], {
     cwd: ROOT,
     env: {
       // Vitest sets NODE_ENV=test; the built server runs as in production.

@@ -5,6 +5,7 @@ import { TEMPLATE_DB } from './paths';
 export type { TestServer };
 export { freePort } from '../../scripts/lib/server-process';
 
-export function startServer(opts: { env?: Record<string, string>; emptyDb?: boolean } = {}): Promise<TestServer> {
-  return start({ env: opts.env, templateDb: opts.emptyDb ? undefined : TEMPLATE_DB });
+/** `entry`: another build's server (e.g. a copy of dist/ a test changes). */
+export function startServer(opts: { env?: Record<string, string>; emptyDb?: boolean; entry?: string } = {}): Promise<TestServer> {
+  return start({ env: opts.env, entry: opts.entry, templateDb: opts.emptyDb ? undefined : TEMPLATE_DB });
 }
