@@ -1,13 +1,12 @@
 /**
  * `npm start`: migrates, seeds the demo into an empty database, builds when the sources are
- * newer than the build, starts the local stand-ins and serves Coneline. No variables needed.
+ * newer than the build, and serves Coneline. No variables needed.
  */
 import { spawn, spawnSync } from 'node:child_process';
 import { existsSync, readFileSync, readdirSync, statSync, writeFileSync } from 'node:fs';
 import { networkInterfaces } from 'node:os';
 import { join, resolve } from 'node:path';
 import { prepareDb } from './lib/dbtasks.ts';
-import { startStandIns } from './lib/standins.ts';
 import { tlsEnv } from './lib/tls.ts';
 
 const root = resolve(import.meta.dirname, '..');
@@ -48,23 +47,17 @@ function buildIfNeeded(): void {
 const { seeded } = await prepareDb(dbFile, { seedIfEmpty: true });
 if (seeded) console.log(`Demo clinic seeded into ${dbFile}.`);
 buildIfNeeded();
-const standIns = await startStandIns(root);
 const tls = https ? await tlsEnv(root) : {};
 
 const server = spawn(process.execPath, [resolve(root, 'dist/server/entry.mjs')], {
   cwd: root,
   stdio: 'inherit',
   // The build is a production build: React and Astro pick their fast paths from NODE_ENV.
-  env: { ...process.env, ...standIns.env, ...tls, HOST: host, PORT: port, NODE_ENV: 'production' },
+  env: { ...process.env, ...tls, HOST: host, PORT: port, NODE_ENV: 'production' },
 });
 const scheme = https ? 'https' : 'http';
 console.log(`Coneline: ${scheme}://localhost:${port}  (demo password: coneline-demo-2026)`);
-const stop = () => {
-  server.kill('SIGTERM');
-  void standIns.stop();
-};
+const stop = () => server.kill('SIGTERM');
 process.on('SIGINT', stop);
 process.on('SIGTERM', stop);
-server.on('exit', (code) => {
-  void standIns.stop().finally(() => process.exit(code ?? 0));
-});
+server.on('exit', (code) => process.exit(code ?? 0));
