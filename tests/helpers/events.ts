@@ -1,14 +1,9 @@
 /** Builds event sequences in the sync contract's shape for API tests (invented values). */
 import { randomUUID } from 'node:crypto';
+import type { DemoEvent } from '../../db/demo/script';
 
-export interface WireEvent {
-  id: string;
-  caseId: string;
-  canalId?: string;
-  type: string;
-  at: string;
-  data: Record<string, unknown>;
-}
+/** An event as the tablet sends it (the demo seed writes the same shape). */
+export type WireEvent = DemoEvent;
 
 export class EventWriter {
   readonly caseId = randomUUID();
