@@ -1,10 +1,10 @@
 import { useEffect, useMemo, useState } from 'react';
+import { SETTING_LABEL } from '../shared/labels';
 import { fetchCases, type CaseSummary } from '../../lib/client/api';
 import { casesIn } from '../../lib/client/events';
 import { useChairside } from '../../lib/client/store';
 import { Answer, Answers, StepCard } from './AnswerButtons';
 
-const SETTING: Record<string, string> = { block: 'Training block', extracted: 'Extracted tooth', patient: 'Patient' };
 
 /** The start screen: open a new case, go on with one on this tablet, or fetch one from the server. */
 export function CaseList({ onNew }: { onNew: () => void }) {
@@ -32,7 +32,7 @@ export function CaseList({ onNew }: { onNew: () => void }) {
             {cases.map((c) => (
               <li key={c.caseId} className="flex flex-wrap items-center gap-3">
                 <Answer onTap={() => openCase(c.caseId)}>{c.tooth ? `Tooth ${c.tooth}` : 'Block'}</Answer>
-                <span className="text-base">{SETTING[c.setting]} · opened {new Date(c.openedAt).toLocaleString()}{c.submitted ? ' · submitted' : ''}</span>
+                <span className="text-base">{SETTING_LABEL[c.setting]} · opened {new Date(c.openedAt).toLocaleString()}{c.submitted ? ' · submitted' : ''}</span>
               </li>
             ))}
           </ul>
@@ -45,7 +45,7 @@ export function CaseList({ onNew }: { onNew: () => void }) {
             {elsewhere.map((c) => (
               <li key={c.caseId} className="flex flex-wrap items-center gap-3">
                 <Answer onTap={() => void restoreCase(c.caseId)}>{c.tooth ? `Fetch tooth ${c.tooth}` : 'Fetch block'}</Answer>
-                <span className="text-base">{SETTING[c.setting]} · {c.canals.map((k) => k.name).join(', ')}</span>
+                <span className="text-base">{SETTING_LABEL[c.setting]} · {c.canals.map((k) => k.name).join(', ')}</span>
               </li>
             ))}
           </ul>

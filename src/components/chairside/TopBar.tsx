@@ -1,9 +1,9 @@
 import { fdiToUniversal, toothName } from '../../lib/rules/core';
+import { SETTING_LABEL } from '../shared/labels';
 import type { CaseInfo } from '../../lib/client/events';
 import { useChairside } from '../../lib/client/store';
 import { SyncBadge } from './SyncBadge';
 
-const SETTING: Record<string, string> = { block: 'Training block', extracted: 'Extracted tooth', patient: 'Patient' };
 
 /** The Coneline mark, the tooth and setting, the sync state, and the way out. */
 export function TopBar(props: { info: CaseInfo | null; onCases: () => void; onSignOut: () => void }) {
@@ -21,7 +21,7 @@ export function TopBar(props: { info: CaseInfo | null; onCases: () => void; onSi
           <p className="text-lg">
             <span className="font-bold">{info.tooth ? `Tooth ${info.tooth}` : 'Block'}</span>
             {info.tooth && showUniversal && <span> (Universal {fdiToUniversal(info.tooth)})</span>}
-            <span className="text-muted"> · {SETTING[info.setting]}{info.tooth ? ` · ${toothName(info.tooth)}` : ''}{info.chartRef ? ` · chart ${info.chartRef}` : ''}</span>
+            <span className="text-muted"> · {SETTING_LABEL[info.setting]}{info.tooth ? ` · ${toothName(info.tooth)}` : ''}{info.chartRef ? ` · chart ${info.chartRef}` : ''}</span>
           </p>
           {info.tooth && (
             <button type="button" aria-pressed={showUniversal} onClick={toggleUniversal}
