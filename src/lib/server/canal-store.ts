@@ -74,30 +74,48 @@ interface CanalRow {
   review_status?: string;
 }
 
-/** The stored canal as the API answers it; the review states come from the sign-offs. */
-export async function storedCanal(k: Knex, canalId: string): Promise<CanalResult | null> {
-  const row = await k<CanalRow>('canals')
+interface FindingRow {
+  canal_id: string;
+  code: string;
+  severity: string;
+  event_id: string | null;
+  message: string;
+}
+
+/** Stored canal rows (with their case's review status) and their findings, as the API answers them. */
+async function readCanals(k: Knex, where: { canalId: string } | { caseId: string }): Promise<CanalResult[]> {
+  const q = k<CanalRow>('canals')
     .join('cases', 'cases.id', 'canals.case_id')
     .select('canals.id', 'canals.case_id', 'canals.state_json', 'cases.review_status')
-    .where('canals.id', canalId)
     .whereNot('canals.status', REMOVED)
-    .first();
-  if (!row) return null;
-  const findings = await k('findings')
-    .select('code', 'severity', 'event_id', 'message')
-    .where({ canal_id: canalId })
-    .orderBy('id');
-  return withReviewStatus({
+    .orderBy('canals.id');
+  const rows = (await ('canalId' in where ? q.where('canals.id', where.canalId) : q.where('canals.case_id', where.caseId))) as CanalRow[];
+  if (rows.length === 0) return [];
+  const findings = (await k('findings')
+    .select('canal_id', 'code', 'severity', 'event_id', 'message')
+    .whereIn('canal_id', rows.map((r) => r.id))
+    .orderBy('id')) as FindingRow[];
+  return rows.map((row) => withReviewStatus({
     canalId: row.id,
     caseId: row.case_id,
     state: JSON.parse(row.state_json) as CanalResult['state'],
-    findings: findings.map((f: { code: string; severity: string; event_id: string | null; message: string }) => ({
+    findings: findings.filter((f) => f.canal_id === row.id).map((f) => ({
       code: f.code,
       severity: f.severity,
       ...(f.event_id ? { eventId: f.event_id } : {}),
       message: f.message,
     })) as CanalResult['findings'],
-  }, row.review_status ?? 'open');
+  }, row.review_status ?? 'open'));
+}
+
+/** The stored canal as the API answers it; the review states come from the sign-offs. */
+export async function storedCanal(k: Knex, canalId: string): Promise<CanalResult | null> {
+  return (await readCanals(k, { canalId }))[0] ?? null;
+}
+
+/** Every stored canal of a case, in two queries. */
+export function storedCanalsOfCase(k: Knex, caseId: string): Promise<CanalResult[]> {
+  return readCanals(k, { caseId });
 }
 
 /**

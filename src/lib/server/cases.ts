@@ -2,7 +2,7 @@
 import type { Knex } from 'knex';
 import type { CanalResult, LogEvent } from '../rules/index';
 import { readableCase, readableCases, type CaseRow } from './access';
-import { caseEvents, REMOVED, storedCanal } from './canal-store';
+import { caseEvents, REMOVED, storedCanalsOfCase } from './canal-store';
 
 export interface CaseSummary {
   caseId: string;
@@ -65,12 +65,7 @@ export async function caseDetail(k: Knex, user: SessionUser, caseId: string): Pr
   const row = await readableCase(k, user, caseId);
   if (!row) return null;
   const events = (await caseEvents(k, caseId)).sort((a, b) => Date.parse(a.at) - Date.parse(b.at) || (a.id < b.id ? -1 : 1));
-  const canalIds = ((await k('canals').select('id').where({ case_id: caseId }).whereNot('status', REMOVED).orderBy('id')) as { id: string }[]).map((c) => c.id);
-  const canals: CanalResult[] = [];
-  for (const id of canalIds) {
-    const c = await storedCanal(k, id);
-    if (c) canals.push(c);
-  }
+  const canals = await storedCanalsOfCase(k, caseId);
   // In the order the canals were set up, as the student met them.
   const setUp = events.filter((e) => e.type === 'canal.added').map((e) => e.canalId);
   canals.sort((a, b) => setUp.indexOf(a.canalId) - setUp.indexOf(b.canalId));
