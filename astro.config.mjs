@@ -20,8 +20,29 @@ export default defineConfig({
   // A second build folder (inside the project, so node_modules resolves from it, e.g.
   // dist-bench) lets a benchmark or an experiment build beside a running test suite.
   outDir: process.env.ASTRO_OUT_DIR ?? './dist',
-  adapter: node({ mode: 'standalone' }),
-  integrations: [react(), auth(), chairsidePwa()],
+  // scripts/server.mjs imports the adapter's handler and runs the server itself. Static
+  // headers: /chairside is a static file, and its policy (with the hashes of its inline
+  // scripts) must come as a header so that frame-ancestors counts.
+  adapter: node({ mode: 'standalone', experimentalStaticHeaders: true }),
+  // Our own /api/auth route reads and limits the body before Auth.js sees it.
+  integrations: [react(), auth({ injectEndpoints: false }), chairsidePwa()],
+  experimental: {
+    // Astro hashes the hydration scripts, so script-src needs no 'unsafe-inline'.
+    csp: {
+      directives: [
+        "default-src 'self'",
+        "img-src 'self' data: blob:",
+        "font-src 'self'",
+        "connect-src 'self'",
+        "worker-src 'self'",
+        "manifest-src 'self'",
+        "object-src 'none'",
+        "base-uri 'self'",
+        "form-action 'self'",
+        "frame-ancestors 'none'",
+      ],
+    },
+  },
   // Without allowedDomains Astro 5.18 ignores the Host header and its origin check
   // refuses same-origin form posts (the Auth.js sign-in included). See stack-notes.md.
   security: {

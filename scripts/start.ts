@@ -49,7 +49,7 @@ if (seeded) console.log(`Demo clinic seeded into ${dbFile}.`);
 buildIfNeeded();
 const tls = https ? await tlsEnv(root) : {};
 
-const server = spawn(process.execPath, [resolve(root, 'dist/server/entry.mjs')], {
+const server = spawn(process.execPath, [resolve(root, 'scripts/server.mjs')], {
   cwd: root,
   stdio: 'inherit',
   // The build is a production build: React and Astro pick their fast paths from NODE_ENV.

@@ -12,5 +12,7 @@ interface SessionUser {
 declare namespace App {
   interface Locals {
     user: SessionUser | null;
+    /** The server-side session of the signed-in user (src/lib/server/sessions.ts). */
+    sessionId: string | null;
   }
 }

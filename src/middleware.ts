@@ -1,36 +1,11 @@
-// Session into Astro.locals and a coarse gate; every handler still authorises the data it
-// touches (conventions.md).
+// Session into Astro.locals and a coarse gate by the matched route; every handler still
+// authorises the data it touches (conventions.md). Security headers are set on every
+// response by the server entry (scripts/server.mjs), static files included.
 import { defineMiddleware } from 'astro:middleware';
-import { sessionOf } from './lib/server/session-cache';
-import { userFromSession } from './lib/server/session';
 import { jsonError } from './lib/server/http';
-
-/** Pages anyone may open. The chairside shell is static and holds no data. */
-const PUBLIC_PAGES = [/^\/signin\/?$/, /^\/chairside\/?$/, /^\/invite\//, /^\/reset-password/, /^\/forgot-password\/?$/];
-
-/** Path prefixes and the roles allowed there. */
-const ROLE_GATES: { prefix: string; roles: Role[] }[] = [
-  { prefix: '/review', roles: ['attending', 'director'] },
-  { prefix: '/admin', roles: ['director'] },
-  { prefix: '/api/admin', roles: ['director'] },
-  { prefix: '/reports', roles: ['director'] },
-];
-
-const SECURITY_HEADERS: Record<string, string> = {
-  'X-Content-Type-Options': 'nosniff',
-  'Referrer-Policy': 'same-origin',
-  'Content-Security-Policy': "frame-ancestors 'none'; base-uri 'self'; object-src 'none'; form-action 'self'",
-  'Permissions-Policy': 'camera=(self), geolocation=(), microphone=()',
-};
-
-function withHeaders(res: Response): Response {
-  try {
-    for (const [k, v] of Object.entries(SECURITY_HEADERS)) if (!res.headers.has(k)) res.headers.set(k, v);
-  } catch {
-    // Some responses (redirects made by Response.redirect) have immutable headers.
-  }
-  return res;
-}
+import { isApiRoute, isPublicRoute, rolesFor } from './lib/server/routes';
+import { userFromSession } from './lib/server/session';
+import { sessionOf } from './lib/server/session-cache';
 
 /** Pages for a signed-in user hold health records: no copy in the browser's cache. */
 function noStore(res: Response): Response {
@@ -44,9 +19,11 @@ function noStore(res: Response): Response {
 
 export const onRequest = defineMiddleware(async (ctx, next) => {
   ctx.locals.user = null;
+  ctx.locals.sessionId = null;
   if (ctx.isPrerendered) return next();
-  const path = ctx.url.pathname;
-  if (path.startsWith('/api/auth/')) return withHeaders(await next());
+  const route = ctx.routePattern;
+  // Auth.js's endpoints read their own session (our route limits them first).
+  if (route === '/api/auth/[...auth]') return noStore(await next());
 
   let session: Awaited<ReturnType<typeof sessionOf>> = null;
   try {
@@ -55,23 +32,23 @@ export const onRequest = defineMiddleware(async (ctx, next) => {
     session = null; // A malformed or foreign cookie is simply no session.
   }
   // Database faults are not "signed out": they surface as errors, so a tablet keeps its user.
-  const user = await userFromSession(session);
+  const signedIn = await userFromSession(session);
+  const user = signedIn?.user ?? null;
   ctx.locals.user = user;
+  ctx.locals.sessionId = signedIn?.sessionId ?? null;
 
-  const isApi = path.startsWith('/api/');
+  const api = isApiRoute(route);
   if (!user) {
-    if (isApi) return withHeaders(jsonError(401, 'Sign in first.'));
-    if (!PUBLIC_PAGES.some((re) => re.test(path))) {
-      const callbackUrl = encodeURIComponent(path + ctx.url.search);
-      return ctx.redirect(`/signin?callbackUrl=${callbackUrl}`, 302);
-    }
-    return withHeaders(await next());
+    if (isPublicRoute(route)) return next();
+    if (api) return jsonError(401, 'Sign in first.');
+    const callbackUrl = encodeURIComponent(ctx.url.pathname + ctx.url.search);
+    return ctx.redirect(`/signin?callbackUrl=${callbackUrl}`, 302);
   }
 
-  const gate = ROLE_GATES.find((g) => path === g.prefix || path.startsWith(g.prefix + '/'));
-  if (gate && !gate.roles.includes(user.role)) {
-    if (isApi) return withHeaders(jsonError(403, 'Your role may not do this.'));
-    return noStore(withHeaders(await ctx.rewrite('/forbidden')));
+  const roles = rolesFor(route);
+  if (roles && !roles.includes(user.role)) {
+    if (api) return jsonError(403, 'Your role may not do this.');
+    return noStore(await ctx.rewrite('/forbidden'));
   }
-  return noStore(withHeaders(await next()));
+  return noStore(await next());
 });

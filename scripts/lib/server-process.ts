@@ -1,4 +1,4 @@
-/** Starts the built server (dist/server/entry.mjs) on a free port in a temporary folder, for tests and benchmarks. */
+/** Starts the built server (scripts/server.mjs around dist/) on a free port in a temporary folder, for tests and benchmarks. */
 import { spawn, type ChildProcess } from 'node:child_process';
 import { copyFileSync, existsSync, mkdtempSync, rmSync } from 'node:fs';
 import { connect, createServer } from 'node:net';
@@ -6,7 +6,7 @@ import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 
 const ROOT = resolve(import.meta.dirname, '../..');
-const ENTRY = resolve(ROOT, 'dist/server/entry.mjs');
+const SERVER = resolve(ROOT, 'scripts/server.mjs');
 
 export interface TestServer {
   baseUrl: string;
@@ -41,7 +41,7 @@ export function freePort(): Promise<number> {
 }
 
 /** Starts the server on a copy of `templateDb` (a migrated database), or on an empty file. */
-export async function startServer(opts: { templateDb?: string; env?: Record<string, string>; entry?: string } = {}): Promise<TestServer> {
+export async function startServer(opts: { templateDb?: string; env?: Record<string, string>; outDir?: string } = {}): Promise<TestServer> {
   const dir = mkdtempSync(join(tmpdir(), 'coneline-test-'));
   const dbFile = join(dir, 'coneline.sqlite');
   if (opts.templateDb) {
@@ -52,12 +52,13 @@ export async function startServer(opts: { templateDb?: string; env?: Record<stri
   let log = '';
     // SERVER_NODE_ARGS, e.g. "--cpu-prof --cpu-prof-dir=/tmp/prof", for profiling a benchmark.
   const nodeArgs = (process.env.SERVER_NODE_ARGS ?? '').split(' ').filter(Boolean);
-  const child: ChildProcess = spawn(process.execPath, [...nodeArgs, opts.entry ?? ENTRY], {
+  const child: ChildProcess = spawn(process.execPath, [...nodeArgs, SERVER], {
     cwd: ROOT,
     env: {
       // Vitest sets NODE_ENV=test; the built server runs as in production.
       ...process.env, NODE_ENV: 'production', HOST: '127.0.0.1', PORT: String(port), DB_FILE: dbFile, DATA_DIR: dir,
-      AUTH_SECRET: 'local-run-secret-local-run-secret-0123456789', ...opts.env,
+      AUTH_SECRET: 'local-run-secret-local-run-secret-0123456789',
+      ...(opts.outDir ? { ASTRO_OUT_DIR: opts.outDir } : {}), ...opts.env,
     },
     stdio: ['ignore', 'pipe', 'pipe'],
   });

@@ -15,7 +15,7 @@ let browser: Browser;
 
 beforeAll(async () => {
   cpSync(join(ROOT, 'dist'), BUILD, { recursive: true });
-  [server, browser] = await Promise.all([startServer({ entry: join(BUILD, 'server/entry.mjs') }), launchBrowser()]);
+  [server, browser] = await Promise.all([startServer({ outDir: BUILD }), launchBrowser()]);
 });
 afterAll(async () => {
   await browser?.close();

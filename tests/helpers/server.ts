@@ -5,7 +5,7 @@ import { TEMPLATE_DB } from './paths';
 export type { TestServer };
 export { freePort } from '../../scripts/lib/server-process';
 
-/** `entry`: another build's server (e.g. a copy of dist/ a test changes). */
-export function startServer(opts: { env?: Record<string, string>; emptyDb?: boolean; entry?: string } = {}): Promise<TestServer> {
-  return start({ env: opts.env, entry: opts.entry, templateDb: opts.emptyDb ? undefined : TEMPLATE_DB });
+/** `outDir`: another build folder (e.g. a copy of dist/ a test changes). */
+export function startServer(opts: { env?: Record<string, string>; emptyDb?: boolean; outDir?: string } = {}): Promise<TestServer> {
+  return start({ env: opts.env, outDir: opts.outDir, templateDb: opts.emptyDb ? undefined : TEMPLATE_DB });
 }

@@ -72,11 +72,6 @@ export async function createUser(k: Knex, input: NewUser, actorId: number | null
   return created;
 }
 
-/** Ends every session of the user (sign-out, deactivation, password change). */
-export async function bumpSessionVersion(k: Knex, userId: number): Promise<void> {
-  await k('users').where({ id: userId }).increment('session_version', 1);
-}
-
 export function toSessionUser(u: UserRow): SessionUser {
   return { id: u.id, email: u.email, name: u.name, role: u.role };
 }

@@ -4,6 +4,7 @@ import { db } from '../../lib/server/db';
 import { isJson, json, jsonError, sameOrigin } from '../../lib/server/http';
 import { ingestBatch } from '../../lib/server/sync';
 import { readBody } from '../../lib/server/body';
+import { requireRole } from '../../lib/server/guard';
 
 const MAX_BYTES = 1024 * 1024;
 const MAX_EVENTS = 500;
@@ -16,11 +17,13 @@ const batchSchema = z.object({
   events: z.array(z.unknown(), { required_error: 'events is required', invalid_type_error: 'events must be a list' }),
 });
 
-export const POST: APIRoute = async ({ request, locals }) => {
+export const POST: APIRoute = async (ctx) => {
+  const { request, locals } = ctx;
   const user = locals.user;
   if (!user) return jsonError(401, 'Sign in first.');
   if (!sameOrigin(request)) return jsonError(403, 'This request did not come from Coneline.');
-  if (user.role !== 'student') return jsonError(403, 'Only students record procedures.');
+  const denied = await requireRole(ctx, ['student']);
+  if (denied) return denied;
   if (!isJson(request)) return jsonError(415, 'Send the batch as application/json.');
 
   let body: { text: string; tooLarge: boolean };

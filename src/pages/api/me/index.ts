@@ -1,5 +1,5 @@
 import type { APIRoute } from 'astro';
-import { json, jsonError } from '../../lib/server/http';
+import { json, jsonError } from '../../../lib/server/http';
 
 export const GET: APIRoute = ({ locals }) => {
   const user = locals.user;

@@ -1,0 +1,28 @@
+/**
+ * Who may reach which route, by the route Astro matched (`context.routePattern`), never by
+ * the raw path: Astro matches `//admin`, `/./admin` and `/%61dmin` to /admin while the path
+ * keeps its spelling. Every page and endpoint is listed here; tests/api/access.test.ts holds
+ * each one to its row. Handlers still check the rows of data they touch.
+ */
+
+/** Routes anyone may reach. The chairside shell is static and holds no data. */
+export const PUBLIC_ROUTES: ReadonlySet<string> = new Set(['/signin', '/chairside', '/404', '/api/auth/[...auth]']);
+
+/** Routes open to some roles only; any other signed-in route is open to every role. */
+export const ROLE_ROUTES: Readonly<Record<string, readonly Role[]>> = {
+  '/admin': ['director'],
+  '/api/sync': ['student'],
+};
+
+/** The roles a route is limited to, or null when any signed-in user may reach it. */
+export function rolesFor(routePattern: string): readonly Role[] | null {
+  return ROLE_ROUTES[routePattern] ?? null;
+}
+
+export function isPublicRoute(routePattern: string): boolean {
+  return PUBLIC_ROUTES.has(routePattern);
+}
+
+export function isApiRoute(routePattern: string): boolean {
+  return routePattern === '/api' || routePattern.startsWith('/api/');
+}
