@@ -75,7 +75,7 @@ describe('signing in', () => {
     const locked = await postSignIn({ email, password: DEMO.password });
     const to = new URL(locked.headers.get('location')!, server.baseUrl);
     expect(to.searchParams.get('code')).toBe('throttled');
-    expect(await (await fetch(to)).text()).toContain('Too many failed attempts');
+    expect(await (await fetch(to)).text()).toContain('Too many failed sign-ins');
     // Other accounts are not affected.
     await expect(apiSignIn(server.baseUrl, DEMO.helen, DEMO.password)).resolves.toBeDefined();
   });
@@ -90,7 +90,7 @@ describe('signing in', () => {
 
 describe('the gate', () => {
   it('sends an anonymous visitor of any page, the home page included, to sign in', async () => {
-    for (const path of ['/', '/admin', '/review']) {
+    for (const path of ['/', '/admin', '/account', '/signout']) {
       const res = await anonymous(server.baseUrl).fetch(path);
       expect(res.status).toBe(302);
       expect(res.headers.get('location')).toBe(`/signin?callbackUrl=${encodeURIComponent(path)}`);
