@@ -1,0 +1,181 @@
+// The access matrix: every page and API route × anonymous, the owning student, another
+// student, the assigned attending, an unassigned attending and a director — and the same
+// requests under other spellings of the path (//admin, /./admin, /%5Cadmin, //%61dmin …),
+// which Astro matches to the same route. A route file without a row here fails the test.
+import { readdirSync, statSync } from 'node:fs';
+import { request } from 'node:http';
+import { join, relative, resolve } from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { PUBLIC_ROUTES, ROLE_ROUTES } from '../../src/lib/server/routes';
+import { apiSignIn, DEMO, type ApiClient } from '../helpers/client';
+import { ROOT } from '../helpers/paths';
+import { startServer, type TestServer } from '../helpers/server';
+
+const ACTORS = ['anonymous', 'owner', 'otherStudent', 'assigned', 'unassigned', 'director'] as const;
+type Actor = (typeof ACTORS)[number];
+/** Demo accounts in each part: Mira owns the case; Helen is her attending, Samuel is not. */
+const ACCOUNT: Record<Exclude<Actor, 'anonymous'>, string> = {
+  owner: DEMO.mira,
+  otherStudent: DEMO.tomas,
+  assigned: DEMO.helen,
+  unassigned: DEMO.samuel,
+  director: DEMO.ingrid,
+};
+
+interface Ids {
+  caseId: string;
+  canalId: string;
+}
+interface Row {
+  method: 'GET' | 'POST';
+  path: (ids: Ids) => string;
+  body?: unknown;
+  /** The status each actor gets. */
+  expect: Record<Actor, number>;
+  /** Also try the path's other spellings. */
+  variants?: boolean;
+}
+
+const signedIn = (status: number, anonymous: number): Record<Actor, number> => ({
+  anonymous, owner: status, otherStudent: status, assigned: status, unassigned: status, director: status,
+});
+const readers = (anonymous: number): Record<Actor, number> => ({
+  anonymous, owner: 200, otherStudent: 404, assigned: 200, unassigned: 404, director: 200,
+});
+
+/** One row per route pattern (as Astro names it). */
+const MATRIX: Record<string, Row[]> = {
+  '/': [{ method: 'GET', path: () => '/', expect: signedIn(200, 302) }],
+  '/404': [{ method: 'GET', path: () => '/no-such-page', expect: signedIn(404, 404) }],
+  '/account': [{ method: 'GET', path: () => '/account', expect: signedIn(200, 302), variants: true }],
+  '/admin': [
+    {
+      method: 'GET', path: () => '/admin', variants: true,
+      expect: { anonymous: 302, owner: 403, otherStudent: 403, assigned: 403, unassigned: 403, director: 200 },
+    },
+  ],
+  '/cases/[caseId]': [{ method: 'GET', path: (i) => `/cases/${i.caseId}`, expect: readers(302), variants: true }],
+  '/chairside': [{ method: 'GET', path: () => '/chairside', expect: signedIn(200, 200) }],
+  '/forbidden': [{ method: 'GET', path: () => '/forbidden', expect: signedIn(403, 302) }],
+  '/signin': [{ method: 'GET', path: () => '/signin', expect: signedIn(302, 200) }],
+  '/signout': [{ method: 'GET', path: () => '/signout', expect: signedIn(200, 302) }],
+  '/api/auth/[...auth]': [
+    { method: 'GET', path: () => '/api/auth/session', expect: signedIn(200, 200) },
+    { method: 'GET', path: () => '/api/auth/providers', expect: signedIn(200, 200) },
+    { method: 'GET', path: () => '/api/auth/signin', expect: signedIn(404, 404) },
+  ],
+  '/api/canals/[canalId]': [{ method: 'GET', path: (i) => `/api/canals/${i.canalId}`, expect: readers(401), variants: true }],
+  '/api/cases': [{ method: 'GET', path: () => '/api/cases', expect: signedIn(200, 401) }],
+  '/api/cases/[caseId]': [{ method: 'GET', path: (i) => `/api/cases/${i.caseId}`, expect: readers(401), variants: true }],
+  '/api/me': [{ method: 'GET', path: () => '/api/me', expect: signedIn(200, 401) }],
+  // A body that cannot pass validation: the matrix must change nothing.
+  '/api/me/password': [{ method: 'POST', path: () => '/api/me/password', body: { id: 'x' }, expect: signedIn(400, 401) }],
+  '/api/sync': [
+    {
+      method: 'POST', path: () => '/api/sync', body: { deviceId: 'access-matrix', events: [] }, variants: true,
+      expect: { anonymous: 401, owner: 200, otherStudent: 200, assigned: 403, unassigned: 403, director: 403 },
+    },
+  ],
+};
+
+/** Other spellings of a path that Astro matches to the same route. */
+function spellings(path: string): string[] {
+  const rest = path.slice(1);
+  const first = rest.charCodeAt(0).toString(16);
+  return [`/${path}`, `/./${path}`, `//.${path}`, `/%5C${rest}`, `//%${first}${rest.slice(1)}`, `/%${first}${rest.slice(1)}`];
+}
+
+/** Every route file under src/pages, as Astro's route pattern. */
+function routePatterns(): string[] {
+  const pagesDir = resolve(ROOT, 'src/pages');
+  const files: string[] = [];
+  const walk = (dir: string) => {
+    for (const name of readdirSync(dir)) {
+      const full = join(dir, name);
+      if (statSync(full).isDirectory()) walk(full);
+      else if (/\.(astro|ts|tsx|js|md|mdx)$/.test(name) && !name.startsWith('_')) files.push(full);
+    }
+  };
+  walk(pagesDir);
+  return files.map((f) => {
+    const route = relative(pagesDir, f).replace(/\.[^.]+$/, '').replace(/(^|\/)index$/, '');
+    return `/${route}`;
+  });
+}
+
+/** Sends the path exactly as written (fetch would tidy its dots away). */
+function raw(baseUrl: string, method: string, path: string, cookie: string, body?: unknown): Promise<{ status: number; text: string }> {
+  const url = new URL(baseUrl);
+  const payload = body === undefined ? undefined : JSON.stringify(body);
+  const headers: Record<string, string> = { Cookie: cookie };
+  if (payload !== undefined) Object.assign(headers, { 'Content-Type': 'application/json', Origin: baseUrl });
+  return new Promise((resolveAnswer, reject) => {
+    const req = request({ host: url.hostname, port: url.port, method, path, headers }, (res) => {
+      let text = '';
+      res.on('data', (d: Buffer) => (text += d.toString()));
+      res.on('end', () => resolveAnswer({ status: res.statusCode ?? 0, text }));
+    });
+    req.on('error', reject);
+    req.end(payload);
+  });
+}
+
+let server: TestServer;
+const cookies: Record<Actor, string> = { anonymous: '' } as Record<Actor, string>;
+let ids: Ids;
+
+beforeAll(async () => {
+  server = await startServer();
+  for (const actor of ACTORS) {
+    if (actor === 'anonymous') continue;
+    const api: ApiClient = await apiSignIn(server.baseUrl, ACCOUNT[actor], DEMO.password);
+    cookies[actor] = api.cookie;
+  }
+  const list = (await (await fetch(`${server.baseUrl}/api/cases`, { headers: { Cookie: cookies.owner } })).json()) as {
+    cases: { caseId: string; canals: { canalId: string }[] }[];
+  };
+  const withCanal = list.cases.find((c) => c.canals.length > 0)!;
+  ids = { caseId: withCanal.caseId, canalId: withCanal.canals[0]!.canalId };
+});
+afterAll(async () => {
+  await server?.stop();
+});
+
+describe('the access matrix', () => {
+  it('has a row for every route, and every row names a route that exists', () => {
+    const patterns = routePatterns().sort();
+    expect(Object.keys(MATRIX).sort()).toEqual(patterns);
+    for (const p of [...PUBLIC_ROUTES, ...Object.keys(ROLE_ROUTES)]) expect(patterns, p).toContain(p);
+  });
+
+  for (const [pattern, rows] of Object.entries(MATRIX)) {
+    for (const row of rows) {
+      it(`${row.method} ${pattern} answers each actor as its row says`, async () => {
+        const path = row.path(ids);
+        for (const actor of ACTORS) {
+          const res = await raw(server.baseUrl, row.method, path, cookies[actor], row.body);
+          expect(res.status, `${actor} ${row.method} ${path}`).toBe(row.expect[actor]);
+        }
+      });
+
+      if (row.variants) {
+        it(`${row.method} ${pattern} gives no more under other spellings of its path`, async () => {
+          const reached = new Set<Actor>();
+          for (const path of spellings(row.path(ids))) {
+            for (const actor of ACTORS) {
+              const res = await raw(server.baseUrl, row.method, path, cookies[actor], row.body);
+              if (row.expect[actor] === 200) {
+                if (res.status === 200) reached.add(actor);
+                continue;
+              }
+              expect(res.status, `${actor} ${row.method} ${path}`).not.toBe(200);
+              expect(res.text, `${actor} ${row.method} ${path}`).not.toContain('larkfield.example');
+            }
+          }
+          // The spellings do reach the route: those allowed in get it under some spelling.
+          for (const actor of ACTORS.filter((a) => row.expect[a] === 200)) expect(reached, actor).toContain(actor);
+        });
+      }
+    }
+  }
+});
