@@ -20,7 +20,9 @@ let cached: ServerConfig | null = null;
 /** Reads AUTH_SECRET, or keeps a generated one in the data folder so sessions survive restarts. */
 function authSecret(dataDir: string): string {
   const fromEnv = process.env.AUTH_SECRET;
-  if (fromEnv && fromEnv.length >= 32) return fromEnv;
+  // A short secret is refused, never quietly replaced: the operator meant to set one.
+  if (fromEnv !== undefined && fromEnv.length < 32) throw new Error('AUTH_SECRET must be at least 32 characters');
+  if (fromEnv) return fromEnv;
   const file = resolve(dataDir, 'auth-secret');
   if (existsSync(file)) return readFileSync(file, 'utf8').trim();
   mkdirSync(dataDir, { recursive: true });
