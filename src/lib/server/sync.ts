@@ -36,10 +36,11 @@ function rank(e: LogEvent): number {
 
 const CHUNK = 400;
 
-async function selectIn<T>(k: Knex, table: string, columns: string[], key: string, values: string[]): Promise<T[]> {
+/** Rows of `query()` whose `key` is among `values`, in chunks under SQLite's limit on bound values. */
+async function selectIn<T>(query: () => Knex.QueryBuilder, key: string, values: string[]): Promise<T[]> {
   const out: T[] = [];
   for (let i = 0; i < values.length; i += CHUNK) {
-    out.push(...((await k(table).select(columns).whereIn(key, values.slice(i, i + CHUNK))) as T[]));
+    out.push(...((await query().whereIn(key, values.slice(i, i + CHUNK))) as T[]));
   }
   return out;
 }
@@ -55,16 +56,19 @@ function idOf(raw: unknown): string | null {
 async function loadKnown(trx: Knex, userId: number, parsed: Parsed[], refused: Set<string>): Promise<Known> {
   const events = parsed.map((p) => p.event);
   const refs = unique(events.map((e) => (e.data as { eventId?: unknown }).eventId as string | undefined));
-  const stored = await selectIn<{ id: string; canonical: string; user_id: number }>(trx, 'events', ['id', 'canonical', 'user_id'], 'id', unique(events.map((e) => e.id)));
-  const cases = await selectIn<KnownCase>(trx, 'cases', ['id', 'student_id', 'review_status'], 'id', unique(events.map((e) => e.caseId)));
-  const canals = await selectIn<{ id: string; case_id: string }>(trx, 'canals', ['id', 'case_id'], 'id', unique(events.map((e) => e.canalId)));
-  const targets = await selectIn<KnownEvent>(trx, 'events', ['id', 'case_id', 'canal_id', 'type'], 'id', refs);
+  const stored = await selectIn<{ id: string; canonical: string; user_id: number }>(
+    () => trx('events').select('id', 'canonical', 'user_id'), 'id', unique(events.map((e) => e.id)));
+  const cases = await selectIn<KnownCase>(() => trx('cases').select('id', 'student_id', 'review_status'), 'id', unique(events.map((e) => e.caseId)));
+  const canals = await selectIn<{ id: string; case_id: string; student_id: number }>(
+    () => trx('canals').join('cases', 'cases.id', 'canals.case_id').select('canals.id', 'canals.case_id', 'cases.student_id'),
+    'canals.id', unique(events.map((e) => e.canalId)));
+  const targets = await selectIn<KnownEvent>(() => trx('events').select('id', 'case_id', 'canal_id', 'type', 'user_id'), 'id', refs);
   return {
     userId,
     stored: new Map(stored.map((r) => [r.id, r])),
     kept: new Map(),
     cases: new Map(cases.map((c) => [c.id, c])),
-    canals: new Map(canals.map((c) => [c.id, c.case_id])),
+    canals: new Map(canals.map((c) => [c.id, { caseId: c.case_id, studentId: c.student_id }])),
     targets: new Map(targets.map((t) => [t.id, t])),
     refused,
   };
@@ -128,7 +132,7 @@ export async function ingestBatch(
       if (fate) {
         results[index] = 'status' in fate ? { id: e.id, ...fate } : { id: e.id, status: 'rejected', ...fate };
         // Refused for good (not "send again"): a withdrawal naming it can never be stored.
-        if ('status' in fate ? fate.status === 'rejected' : !fate.retry) refused.add(e.id);
+        if (!('status' in fate) && !fate.retry) refused.add(e.id);
         continue;
       }
       if (e.type === 'case.opened') {
@@ -140,10 +144,10 @@ export async function ingestBatch(
         known.cases.set(e.caseId, { id: e.caseId, student_id: userId, review_status: 'open' });
       } else if (e.type === 'canal.added') {
         await trx('canals').insert({ id: e.canalId, case_id: e.caseId, name: e.data.name, status: 'set-up', state_json: '{}' });
-        known.canals.set(e.canalId!, e.caseId);
+        known.canals.set(e.canalId!, { caseId: e.caseId, studentId: userId });
       }
       known.kept.set(e.id, canonical);
-      known.targets.set(e.id, { id: e.id, case_id: e.caseId, canal_id: e.canalId ?? null, type: e.type });
+      known.targets.set(e.id, { id: e.id, case_id: e.caseId, canal_id: e.canalId ?? null, type: e.type, user_id: userId });
       toInsert.push({
         id: e.id, case_id: e.caseId, canal_id: e.canalId ?? null, type: e.type, at: e.at,
         data_json: JSON.stringify(e.data), canonical, user_id: userId, device_id: deviceId, received_at: receivedAt,
