@@ -2,7 +2,7 @@
  * Who may store which event, and when: the checks /api/sync makes of each event of a batch
  * against what the server (and the batch so far) already holds. No writes here.
  */
-import type { LogEvent } from '../rules/index';
+import { CaseTally, tallyEvent, type LimitBreach, type LogEvent } from '../rules/index';
 
 export interface KnownCase {
   id: string;
@@ -38,6 +38,8 @@ export interface Known {
   targets: Map<string, KnownEvent>;
   /** Ids of this batch that were not kept. */
   refused: Set<string>;
+  /** What each of this student's cases holds, for the limits. */
+  tallies: Map<string, CaseTally>;
 }
 
 export type Refusal = { error: string; retry?: true };
@@ -102,4 +104,21 @@ function targetRefusal(e: LogEvent, ref: string, known: Known): Refusal | null {
     return { error: 'eventId must name an accessory cone placed in this canal' };
   }
   return null;
+}
+
+function tallyOfCase(known: Known, caseId: string): CaseTally {
+  let tally = known.tallies.get(caseId);
+  if (!tally) known.tallies.set(caseId, (tally = new CaseTally()));
+  return tally;
+}
+
+/** The limit (limits.ts) storing an otherwise admissible event would pass, or null. */
+export function limitBreach(e: LogEvent, known: Known): LimitBreach | null {
+  return tallyOfCase(known, e.caseId).breach(tallyEvent(e));
+}
+
+/** Notes a kept event: later events of the batch may name it, and it counts toward the limits. */
+export function keep(e: LogEvent, known: Known): void {
+  known.targets.set(e.id, { id: e.id, case_id: e.caseId, canal_id: e.canalId ?? null, type: e.type, user_id: known.userId });
+  tallyOfCase(known, e.caseId).add(tallyEvent(e));
 }

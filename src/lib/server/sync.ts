@@ -7,7 +7,8 @@ import type { Knex } from 'knex';
 import { canonicalEvent, parseEvent, type CanalResult, type LogEvent, type Tolerances } from '../rules/index';
 import { recomputeCanals, withReviewStatus } from './canal-store';
 import { tolerances } from './settings';
-import { priorFate, refusal, type Known, type KnownCase, type KnownEvent } from './sync-admit';
+import { keep, limitBreach, priorFate, refusal, type Known, type KnownCase, type KnownEvent } from './sync-admit';
+import { loadTallies } from './sync-limits';
 
 export type ItemResult =
   | { id: string | null; status: 'stored' | 'duplicate' }
@@ -63,6 +64,8 @@ async function loadKnown(trx: Knex, userId: number, parsed: Parsed[], refused: S
     () => trx('canals').join('cases', 'cases.id', 'canals.case_id').select('canals.id', 'canals.case_id', 'cases.student_id'),
     'canals.id', unique(events.map((e) => e.canalId)));
   const targets = await selectIn<KnownEvent>(() => trx('events').select('id', 'case_id', 'canal_id', 'type', 'user_id'), 'id', refs);
+  // Only this student's cases can take their events; a new case starts with an empty tally.
+  const tallies = await loadTallies(trx, cases.filter((c) => c.student_id === userId).map((c) => c.id));
   return {
     userId,
     stored: new Map(stored.map((r) => [r.id, r])),
@@ -71,6 +74,7 @@ async function loadKnown(trx: Knex, userId: number, parsed: Parsed[], refused: S
     canals: new Map(canals.map((c) => [c.id, { caseId: c.case_id, studentId: c.student_id }])),
     targets: new Map(targets.map((t) => [t.id, t])),
     refused,
+    tallies,
   };
 }
 
@@ -126,14 +130,25 @@ export async function ingestBatch(
     const touched = new Map<string, Set<string> | 'all'>();
     const submittedCases = new Set<string>();
     const receivedAt = now.toISOString();
+    const deferred = new Set<Parsed>();
 
-    for (const { index, event: e, canonical } of [...parsed].sort((a, b) => rank(a.event) - rank(b.event) || a.index - b.index)) {
-      const fate = priorFate(e, canonical, known) ?? refusal(e, known);
+    /** Decides one event: answers it, or keeps it to be stored. `final`: no more deferring. */
+    async function admit(p: Parsed, final: boolean): Promise<void> {
+      const { index, event: e, canonical } = p;
+      let fate = priorFate(e, canonical, known) ?? refusal(e, known);
+      if (!fate) {
+        const breach = limitBreach(e, known);
+        if (breach?.limit === 'canalsPerCase' && !final) {
+          deferred.add(p);
+          return;
+        }
+        if (breach) fate = { error: breach.error };
+      }
       if (fate) {
         results[index] = 'status' in fate ? { id: e.id, ...fate } : { id: e.id, status: 'rejected', ...fate };
         // Refused for good (not "send again"): a withdrawal naming it can never be stored.
         if (!('status' in fate) && !fate.retry) refused.add(e.id);
-        continue;
+        return;
       }
       if (e.type === 'case.opened') {
         const d = e.data;
@@ -146,8 +161,8 @@ export async function ingestBatch(
         await trx('canals').insert({ id: e.canalId, case_id: e.caseId, name: e.data.name, status: 'set-up', state_json: '{}' });
         known.canals.set(e.canalId!, { caseId: e.caseId, studentId: userId });
       }
+      keep(e, known);
       known.kept.set(e.id, canonical);
-      known.targets.set(e.id, { id: e.id, case_id: e.caseId, canal_id: e.canalId ?? null, type: e.type, user_id: userId });
       toInsert.push({
         id: e.id, case_id: e.caseId, canal_id: e.canalId ?? null, type: e.type, at: e.at,
         data_json: JSON.stringify(e.data), canonical, user_id: userId, device_id: deviceId, received_at: receivedAt,
@@ -157,6 +172,15 @@ export async function ingestBatch(
       const t = touched.get(e.caseId);
       if (!e.canalId) touched.set(e.caseId, 'all');
       else if (t !== 'all') touched.set(e.caseId, (t ?? new Set()).add(e.canalId));
+    }
+
+    const order = [...parsed].sort((a, b) => rank(a.event) - rank(b.event) || a.index - b.index);
+    for (const p of order) await admit(p, false);
+    if (deferred.size > 0) {
+      // A canal set up past the limit may fit once the batch's withdrawals are in (voids come
+      // last); it is tried again, then the events that were told to wait, such as its steps.
+      const waiting = (r: ItemResult | undefined) => r?.status === 'rejected' && r.retry === true;
+      for (const p of order.filter((x) => deferred.has(x) || waiting(results[x.index]))) await admit(p, true);
     }
 
     // 250 rows × 10 columns stays well under SQLite's limits on one insert.
