@@ -16,6 +16,8 @@ export type SyncOutcome =
 export interface SyncDeps {
   whoIsSignedIn: () => Promise<Answer<Me>>;
   post: (deviceId: string, events: LogEvent[], userId: number) => Promise<Answer<SyncAnswer>>;
+  /** The tablet's clock (the retry cap counts days by it). */
+  now?: () => Date;
 }
 const realDeps: SyncDeps = { whoIsSignedIn: fetchMe, post: postSync };
 
@@ -72,7 +74,7 @@ export async function syncOnce(userId: number, deviceId: string, deps: SyncDeps 
       return { kind: 'error', status: answer.status, error: answer.error };
     }
     const { results, canals: touched } = answer.value;
-    await applyResults(userId, results);
+    await applyResults(userId, results, deps.now?.() ?? new Date());
     if (touched?.length) await putServerCanals(userId, touched);
     for (const c of touched ?? []) canals.set(c.canalId, c);
     total.sent += batch.length;
