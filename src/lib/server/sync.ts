@@ -1,7 +1,7 @@
 /**
  * The sync service: stores a batch of events exactly once, in one transaction, and answers
  * every event's fate and the recomputed state of every canal the batch touched
- * (sync-contract.md). What may be stored is decided in sync-admit.ts.
+ * (docs/sync-contract.md). What may be stored is decided in sync-admit.ts.
  */
 import type { Knex } from 'knex';
 import { canonicalEvent, parseEvent, type CanalResult, type LogEvent, type Tolerances } from '../rules/index';

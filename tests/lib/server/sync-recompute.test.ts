@@ -1,5 +1,5 @@
 // Which canals a batch recomputes, and with which events: only the canals it touched, each
-// with its own events and the case-level ones (sync-contract.md, "Rules and case-level events").
+// with its own events and the case-level ones (docs/sync-contract.md, "Rules and case-level events").
 import { afterAll, beforeAll, beforeEach, describe, expect, it, vi } from 'vitest';
 import type { LogEvent } from '../../../src/lib/rules/index';
 import { ingestBatch } from '../../../src/lib/server/sync';
