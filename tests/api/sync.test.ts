@@ -130,15 +130,15 @@ describe('POST /api/sync', () => {
     expect(body.canals.map((c) => c.canalId).sort()).toEqual([a, b].sort());
   });
 
-  it('refuses to write into another student\'s case', async () => {
+  it('refuses to write into another student\'s case, as if it did not exist', async () => {
     const w = new EventWriter();
     w.open();
     const canal = w.canal();
     await sync(mira, w.events);
     const intruder = w.add('seat.checked', { fileSize: '35', lengthMm: 21, result: 'seated' }, canal);
     const { body } = await sync(tomas, [intruder]);
-    expect(body.results[0]).toMatchObject({ status: 'rejected' });
-    expect(body.results[0]!.error).toMatch(/not yours/);
+    expect(body.results[0]).toMatchObject({ status: 'rejected', retry: true });
+    expect(body.results[0]!.error).toMatch(/not on the server yet/);
     expect(await count(w.caseId)).toBe(2);
   });
 
@@ -239,12 +239,12 @@ describe('POST /api/sync, edge cases', () => {
     expect(body.canals[0]).toEqual(read);
   });
 
-  it('rejects another student\'s event sent again, rather than calling it a duplicate', async () => {
+  it('rejects another student\'s event sent again, rather than calling it a duplicate or saying whose it is', async () => {
     const w = new EventWriter();
     w.open();
     await sync(mira, w.events);
     const { body } = await sync(tomas, w.events);
-    expect(body.results[0]).toMatchObject({ status: 'rejected', error: 'this case is not yours to write' });
+    expect(body.results[0]).toMatchObject({ status: 'rejected', error: 'the case of this event is not on the server yet; it will be sent again', retry: true });
   });
 
   it('rejects a withdrawal that names an event outside its own canal', async () => {

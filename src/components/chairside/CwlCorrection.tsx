@@ -3,7 +3,7 @@ import { useChairside } from '../../lib/client/store';
 import { Chip, ChipGroup } from './AnswerButtons';
 import { mm, RulerStrip } from './RulerStrip';
 
-// Why a CWL is usually corrected; free text on the wire, chips here (sync-contract.md).
+// Why a CWL is usually corrected; free text on the wire, chips here (docs/sync-contract.md).
 const REASONS = ['MAF radiograph', 'apex locator', 'other'] as const;
 
 /**

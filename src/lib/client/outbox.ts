@@ -6,7 +6,8 @@ import { useStore, userRange } from './db';
  * The tablet's event log, keyed by user. Every event the student records is written here
  * (strict durability) before the screen says "saved". An event stays `queued` — in the
  * outbox — until the server answers `stored` or `duplicate`; a plain rejection keeps it as
- * `rejected` with the server's reason so the student can see it.
+ * `rejected` with the server's reason so the student can see it, and so does a "send it again
+ * later" (`retry: true`) still answered RETRY_CAP_DAYS after the first.
  */
 export type EventState = 'queued' | 'synced' | 'rejected';
 
@@ -19,7 +20,17 @@ export interface StoredEvent {
   error?: string;
   /** How many times the server asked us to send it again later (`retry: true`). */
   retries?: number;
+  /** When the server first asked that (ISO instant); absent on rows from before the cap. */
+  firstRetryAt?: string;
 }
+
+/**
+ * How long the tablet keeps sending an event the server keeps asking for again. An event
+ * whose case never reaches the server (or whose ids someone else holds, which the server
+ * answers the same way) would otherwise stay in the outbox, and block sign-out, for ever.
+ */
+export const RETRY_CAP_DAYS = 7;
+const RETRY_CAP_MS = RETRY_CAP_DAYS * 24 * 60 * 60 * 1000;
 
 export interface SyncResult {
   id: string;
@@ -64,8 +75,8 @@ export async function countQueued(userId: number): Promise<number> {
   return (await listQueued(userId)).length;
 }
 
-/** Apply the server's answers to the outbox in one strict transaction. */
-export function applyResults(userId: number, results: SyncResult[]): Promise<void> {
+/** Apply the server's answers to the outbox in one strict transaction; `now` is the tablet's clock. */
+export function applyResults(userId: number, results: SyncResult[], now: Date = new Date()): Promise<void> {
   return events()('readwrite', (store) => {
     for (const r of results) {
       const req = store.get([userId, r.id]) as IDBRequest<StoredEvent | undefined>;
@@ -76,9 +87,12 @@ export function applyResults(userId: number, results: SyncResult[]): Promise<voi
           row.state = 'synced';
           delete row.error;
         } else if (r.retry) {
-          row.state = 'queued';
           row.retries = (row.retries ?? 0) + 1;
-          row.error = r.error;
+          // A row kept before the cap existed starts its days at this answer.
+          row.firstRetryAt ??= now.toISOString();
+          const capped = now.getTime() - Date.parse(row.firstRetryAt) >= RETRY_CAP_MS;
+          row.state = capped ? 'rejected' : 'queued';
+          row.error = capped ? retryCapMessage(r.error) : r.error;
         } else {
           row.state = 'rejected';
           row.error = r.error ?? 'Rejected by the server';
@@ -88,6 +102,11 @@ export function applyResults(userId: number, results: SyncResult[]): Promise<voi
     }
     return promisifyRequest(store.transaction);
   });
+}
+
+function retryCapMessage(last: string | undefined): string {
+  const answer = last ? ` Its last answer: ${last}.` : '';
+  return `The server did not accept this after ${RETRY_CAP_DAYS} days of retries, so the tablet has stopped sending it.${answer} Show it to your attending, then dismiss it.`;
 }
 
 /**

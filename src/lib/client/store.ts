@@ -8,6 +8,7 @@ import {
 } from './outbox';
 import { deviceId as loadDeviceId, leave, resolveIdentity, type Identity } from './session';
 import { SyncLoop, type SyncStatus } from './syncLoop';
+import { limitRefusal } from './views';
 
 /** What the undo strip offers to withdraw: a recorded event, or a tablet-only mark. */
 export interface UndoItem { key: number; label: string; eventId?: string; canalId?: string; finishedCanal?: string }
@@ -130,6 +131,12 @@ export const useChairside = create<ChairsideState>((set, get) => {
         return null;
       }
       const event = parsed.event;
+      // The server would refuse it for good: say so now instead of keeping it in the outbox.
+      const overLimit = limitRefusal(get().rows, event);
+      if (overLimit) {
+        set({ error: `Not saved: ${overLimit}` });
+        return null;
+      }
       try {
         const row = await putEvent(id, event);
         set((s) => ({

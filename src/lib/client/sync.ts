@@ -1,10 +1,10 @@
-import type { CanalResult, LogEvent } from '../rules/core';
+import { LIMITS, type CanalResult, type LogEvent } from '../rules/core';
 import { fetchMe, postSync, type Answer, type Me, type SyncAnswer } from './api';
 import { applyResults, listQueued, putServerCanals, refuseOrphans, type StoredEvent } from './outbox';
 
-/** The server takes at most 500 events and 1 MB per batch (sync-contract.md). */
-export const MAX_BATCH_EVENTS = 500;
-export const MAX_BATCH_BYTES = 900_000; // headroom under 1 MB for the envelope
+/** The server takes at most 500 events and 1 MB per batch (docs/sync-contract.md, limits.ts). */
+export const MAX_BATCH_EVENTS: number = LIMITS.eventsPerBatch;
+export const MAX_BATCH_BYTES = 900_000; // headroom under LIMITS.bytesPerBatch for the envelope
 
 export type SyncOutcome =
   | { kind: 'done'; sent: number; stored: number; rejected: number; retry: number; canals: CanalResult[] }
@@ -16,6 +16,8 @@ export type SyncOutcome =
 export interface SyncDeps {
   whoIsSignedIn: () => Promise<Answer<Me>>;
   post: (deviceId: string, events: LogEvent[], userId: number) => Promise<Answer<SyncAnswer>>;
+  /** The tablet's clock (the retry cap counts days by it). */
+  now?: () => Date;
 }
 const realDeps: SyncDeps = { whoIsSignedIn: fetchMe, post: postSync };
 
@@ -72,7 +74,7 @@ export async function syncOnce(userId: number, deviceId: string, deps: SyncDeps 
       return { kind: 'error', status: answer.status, error: answer.error };
     }
     const { results, canals: touched } = answer.value;
-    await applyResults(userId, results);
+    await applyResults(userId, results, deps.now?.() ?? new Date());
     if (touched?.length) await putServerCanals(userId, touched);
     for (const c of touched ?? []) canals.set(c.canalId, c);
     total.sent += batch.length;

@@ -1,4 +1,4 @@
-import { evaluateCanal, type CanalResult, type LogEvent } from '../rules/core';
+import { evaluateCanal, tallyEvent, tallyOf, type CanalResult, type LogEvent } from '../rules/core';
 import type { ServerCanal, StoredEvent } from './outbox';
 
 /** The events of one case that count on this tablet (rejected ones were never stored). */
@@ -25,4 +25,12 @@ export function shownResult(
 /** Rejected events of one case, with the server's reason. */
 export function rejectedIn(rows: StoredEvent[], caseId: string | null): StoredEvent[] {
   return rows.filter((r) => r.state === 'rejected' && (!caseId || r.event.caseId === caseId));
+}
+
+/**
+ * Why recording `e` would pass a limit of the case (limits.ts), in the words the server would
+ * use; null when it fits. Rejected events were never stored, so they do not count.
+ */
+export function limitRefusal(rows: StoredEvent[], e: LogEvent): string | null {
+  return tallyOf(caseEvents(rows, e.caseId)).breach(tallyEvent(e))?.error ?? null;
 }

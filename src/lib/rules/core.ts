@@ -7,6 +7,8 @@ export { EVENT_TYPES, CASE_LEVEL_ONLY, CASE_OR_CANAL, SETTINGS, SEALERS, RADIOGR
 export type { EventType, LogEvent, EventOf, RadiographPurpose } from './events';
 export { SOLUTIONS } from './fields';
 export { parseEvent, canonicalEvent } from './parse';
+export { LIMITS, LIMIT_MESSAGES, CaseTally, tallyOf, tallyEvent } from './limits';
+export type { CaseLimit, LimitBreach, TallyEvent } from './limits';
 export { DEFAULT_TOLERANCES, TOLERANCE_SOURCES, resolveTolerances } from './tolerances';
 export type { Tolerances } from './tolerances';
 export { FINDINGS, FINDING_CODES, SAFETY_LINE } from './findings';

@@ -101,12 +101,27 @@ export const optionalUuid = (name: string) => optionalField(uuidCheck(name));
 // tests/lib/rules/parse-agreement.test.ts checks it is still the regex zod builds.
 export const ISO_INSTANT =
   /^((\d\d[2468][048]|\d\d[13579][26]|\d\d0[48]|[02468][048]00|[13579][26]00)-02-29|\d{4}-((0[13578]|1[02])-(0[1-9]|[12]\d|3[01])|(0[469]|11)-(0[1-9]|[12]\d|30)|(02)-(0[1-9]|1\d|2[0-8])))T([01]\d|2[0-3]):[0-5]\d(:[0-5]\d(\.\d+)?)?(Z|([+-]\d{2}:?\d{2}))$/;
-/** An instant in ISO 8601 with a time zone (Z or an offset), kept as written. */
+/**
+ * Digits allowed after the seconds: milliseconds, what `Date` keeps and `toISOString` writes.
+ * More would be dropped by every reader, and an `at` of any length would not fit the 30
+ * characters the events table keeps for it.
+ */
+export const AT_FRACTION_DIGITS = 3;
+const LONG_FRACTION = new RegExp(`:\\d\\d\\.\\d{${AT_FRACTION_DIGITS + 1},}`);
+/**
+ * An instant in ISO 8601 with a time zone (Z or an offset), kept as written; at most
+ * AT_FRACTION_DIGITS digits after the seconds (the pattern itself is zod's, which takes any number).
+ */
 export const instant = (name: string) =>
-  field(name, (v): string | Invalid =>
-    typeof v === 'string' && ISO_INSTANT.test(v) && Number.isFinite(Date.parse(v))
-      ? v
-      : no(`${name} must be an ISO 8601 instant with a time zone, such as 2026-12-02T09:41:07.250Z`));
+  field(name, (v): string | Invalid => {
+    if (typeof v !== 'string' || !ISO_INSTANT.test(v) || !Number.isFinite(Date.parse(v))) {
+      return no(`${name} must be an ISO 8601 instant with a time zone, such as 2026-12-02T09:41:07.250Z`);
+    }
+    if (LONG_FRACTION.test(v)) {
+      return no(`${name} may have at most ${AT_FRACTION_DIGITS} digits after the seconds (milliseconds), such as 2026-12-02T09:41:07.250Z`);
+    }
+    return v;
+  });
 
 export const FDI_RULE_TEXT = 'an FDI tooth number (quadrants 1–4 with teeth 1–8, or primary quadrants 5–8 with teeth 1–5)';
 export const optionalTooth = (name: string) =>

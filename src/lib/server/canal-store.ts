@@ -28,18 +28,41 @@ export async function caseEvents(k: Knex, caseId: string): Promise<LogEvent[]> {
   return rows.map(rowToEvent);
 }
 
-/** Recomputes and stores the given canals of one case; returns their results. */
+/**
+ * The case-level events of a case and the events of the given canals, by canal: all a canal's
+ * rules see (its canal.added names its case; a void counts only in its own scope).
+ */
+async function eventsFor(k: Knex, caseId: string, canalIds: readonly string[]): Promise<{ caseLevel: LogEvent[]; byCanal: Map<string, LogEvent[]> }> {
+  const select = () => k<EventRow>('events').select('id', 'case_id', 'canal_id', 'type', 'at', 'data_json').where({ case_id: caseId });
+  const rows: EventRow[] = await select().whereNull('canal_id');
+  // Chunks keep each query under SQLite's limit on bound values.
+  for (let i = 0; i < canalIds.length; i += 400) rows.push(...(await select().whereIn('canal_id', canalIds.slice(i, i + 400))));
+  const caseLevel: LogEvent[] = [];
+  const byCanal = new Map<string, LogEvent[]>(canalIds.map((id) => [id, []]));
+  for (const r of rows) {
+    if (r.canal_id === null) caseLevel.push(rowToEvent(r));
+    else byCanal.get(r.canal_id)?.push(rowToEvent(r));
+  }
+  return { caseLevel, byCanal };
+}
+
+/**
+ * Recomputes and stores the given canals of one case; returns their results. Each canal is
+ * evaluated with its own events and the case-level ones only, so a batch that touched one
+ * canal reads and judges that canal, not the whole case.
+ */
 export async function recomputeCanals(
   k: Knex,
   caseId: string,
   canalIds: Iterable<string>,
   tol?: Tolerances,
 ): Promise<CanalResult[]> {
-  const events = await caseEvents(k, caseId);
+  const ids = [...canalIds];
+  const { caseLevel, byCanal } = await eventsFor(k, caseId, ids);
   const t = tol ?? (await tolerances(k));
   const out: CanalResult[] = [];
-  for (const canalId of canalIds) {
-    const result = evaluateCanal(canalId, events, t);
+  for (const canalId of ids) {
+    const result = evaluateCanal(canalId, [...caseLevel, ...(byCanal.get(canalId) ?? [])], t);
     if (!result) {
       // Its canal.added was voided: the canal no longer exists for the rules or the reader.
       await k('findings').where({ canal_id: canalId }).delete();

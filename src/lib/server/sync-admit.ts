@@ -2,7 +2,7 @@
  * Who may store which event, and when: the checks /api/sync makes of each event of a batch
  * against what the server (and the batch so far) already holds. No writes here.
  */
-import type { LogEvent } from '../rules/index';
+import { CaseTally, tallyEvent, type LimitBreach, type LogEvent } from '../rules/index';
 
 export interface KnownCase {
   id: string;
@@ -15,6 +15,14 @@ export interface KnownEvent {
   case_id: string;
   canal_id: string | null;
   type: string;
+  /** Who stored it (the case's student). */
+  user_id: number;
+}
+
+/** Where a known canal is, and whose it is. */
+export interface KnownCanal {
+  caseId: string;
+  studentId: number;
 }
 
 /** What is known while a batch is processed; filled from the database, then by the batch. */
@@ -25,45 +33,58 @@ export interface Known {
   /** Events kept earlier in this batch, by id: their normalised content. */
   kept: Map<string, string>;
   cases: Map<string, KnownCase>;
-  /** Canal id → its case id. */
-  canals: Map<string, string>;
+  canals: Map<string, KnownCanal>;
   /** Events another event may name (stored, or kept earlier in this batch). */
   targets: Map<string, KnownEvent>;
   /** Ids of this batch that were not kept. */
   refused: Set<string>;
+  /** What each of this student's cases holds, for the limits. */
+  tallies: Map<string, CaseTally>;
 }
 
 export type Refusal = { error: string; retry?: true };
-export type Fate = { status: 'duplicate' } | { status: 'rejected'; error: string } | null;
+export type Fate = { status: 'duplicate' } | Refusal | null;
 
-/** An id seen before: the same content is a duplicate, other content or another sender is refused. */
+const later = (error: string): Refusal => ({ error, retry: true });
+
+/**
+ * The answer to an event for a case the server does not know. Someone else's case, canal or
+ * event id is answered with exactly this too (the same words, the same `retry`), so that no
+ * answer tells a student that an id they did not make exists.
+ */
+export const UNKNOWN_CASE: Readonly<Refusal> = later('the case of this event is not on the server yet; it will be sent again');
+const UNKNOWN_CANAL = later('the canal of this event is not on the server yet; it will be sent again');
+const UNKNOWN_TARGET = later('the event it withdraws is not on the server yet; it will be sent again');
+
+/** An id seen before: the same content is a duplicate, other content is refused; someone else's id is not known. */
 export function priorFate(e: LogEvent, canonical: string, known: Known): Fate {
   const stored = known.stored.get(e.id);
-  // Someone else's event: say nothing about it, not even that it exists.
-  if (stored && stored.user_id !== known.userId) return { status: 'rejected', error: 'this case is not yours to write' };
+  if (stored && stored.user_id !== known.userId) return UNKNOWN_CASE;
   const prior = stored?.canonical ?? known.kept.get(e.id);
   if (prior === undefined) return null;
   if (prior === canonical) return { status: 'duplicate' };
-  return { status: 'rejected', error: `id ${e.id} was already used for a different event; record it again with a new id` };
+  return { error: `id ${e.id} was already used for a different event; record it again with a new id` };
 }
-
-const later = (error: string): Refusal => ({ error, retry: true });
 
 /** Why a new event may not be stored for this user now, or null when it may. */
 export function refusal(e: LogEvent, known: Known): Refusal | null {
   const c = known.cases.get(e.caseId);
+  const mine = c?.student_id === known.userId;
   if (e.type === 'case.opened') {
     if (!c) return null;
-    return { error: c.student_id === known.userId ? 'this case was already opened' : 'this case id is taken; open the case again' };
+    return mine ? { error: 'this case was already opened' } : UNKNOWN_CASE;
   }
-  if (!c) return later('the case of this event is not on the server yet; it will be sent again');
-  if (c.student_id !== known.userId) return { error: 'this case is not yours to write' };
+  if (!c || !mine) return UNKNOWN_CASE;
   if (c.review_status === 'approved') return { error: 'this case is signed off; ask your attending to reopen it before recording more' };
-  if (e.type === 'canal.added') return known.canals.has(e.canalId!) ? { error: 'this canal was already added' } : null;
-  if (e.canalId) {
-    const canalCase = known.canals.get(e.canalId);
-    if (canalCase === undefined) return later('the canal of this event is not on the server yet; it will be sent again');
-    if (canalCase !== e.caseId) return { error: 'this canal belongs to another case' };
+  const canal = e.canalId === undefined ? undefined : known.canals.get(e.canalId);
+  const ours = canal?.studentId === known.userId;
+  if (e.type === 'canal.added') {
+    if (!canal) return null;
+    return ours ? { error: 'this canal was already added' } : UNKNOWN_CASE;
+  }
+  if (e.canalId !== undefined) {
+    if (!canal || !ours) return UNKNOWN_CANAL;
+    if (canal.caseId !== e.caseId) return { error: 'this canal belongs to another case' };
   }
   const ref = (e.data as { eventId?: unknown }).eventId;
   return typeof ref === 'string' ? targetRefusal(e, ref, known) : null;
@@ -71,9 +92,10 @@ export function refusal(e: LogEvent, known: Known): Refusal | null {
 
 /** Checks of a void or a withdrawn cone against the event it names. */
 function targetRefusal(e: LogEvent, ref: string, known: Known): Refusal | null {
-  const target = known.targets.get(ref);
+  const found = known.targets.get(ref);
+  const target = found?.user_id === known.userId ? found : undefined;
   if (!target && known.refused.has(ref)) return { error: 'the event it names was refused, so there is nothing to withdraw' };
-  if (!target) return later('the event it withdraws is not on the server yet; it will be sent again');
+  if (!target) return UNKNOWN_TARGET;
   if (target.case_id !== e.caseId) return { error: 'eventId must name an event of the same case' };
   if (e.type === 'event.voided' && target.canal_id !== (e.canalId ?? null)) {
     return { error: 'a withdrawal must name an event of its own canal, or a case-level event when it is case-level' };
@@ -82,4 +104,21 @@ function targetRefusal(e: LogEvent, ref: string, known: Known): Refusal | null {
     return { error: 'eventId must name an accessory cone placed in this canal' };
   }
   return null;
+}
+
+function tallyOfCase(known: Known, caseId: string): CaseTally {
+  let tally = known.tallies.get(caseId);
+  if (!tally) known.tallies.set(caseId, (tally = new CaseTally()));
+  return tally;
+}
+
+/** The limit (limits.ts) storing an otherwise admissible event would pass, or null. */
+export function limitBreach(e: LogEvent, known: Known): LimitBreach | null {
+  return tallyOfCase(known, e.caseId).breach(tallyEvent(e));
+}
+
+/** Notes a kept event: later events of the batch may name it, and it counts toward the limits. */
+export function keep(e: LogEvent, known: Known): void {
+  known.targets.set(e.id, { id: e.id, case_id: e.caseId, canal_id: e.canalId ?? null, type: e.type, user_id: known.userId });
+  tallyOfCase(known, e.caseId).add(tallyEvent(e));
 }

@@ -1,13 +1,14 @@
 /**
  * The sync service: stores a batch of events exactly once, in one transaction, and answers
  * every event's fate and the recomputed state of every canal the batch touched
- * (sync-contract.md). What may be stored is decided in sync-admit.ts.
+ * (docs/sync-contract.md). What may be stored is decided in sync-admit.ts.
  */
 import type { Knex } from 'knex';
 import { canonicalEvent, parseEvent, type CanalResult, type LogEvent, type Tolerances } from '../rules/index';
 import { recomputeCanals, withReviewStatus } from './canal-store';
 import { tolerances } from './settings';
-import { priorFate, refusal, type Known, type KnownCase, type KnownEvent } from './sync-admit';
+import { keep, limitBreach, priorFate, refusal, type Known, type KnownCase, type KnownEvent } from './sync-admit';
+import { loadTallies } from './sync-limits';
 
 export type ItemResult =
   | { id: string | null; status: 'stored' | 'duplicate' }
@@ -36,10 +37,11 @@ function rank(e: LogEvent): number {
 
 const CHUNK = 400;
 
-async function selectIn<T>(k: Knex, table: string, columns: string[], key: string, values: string[]): Promise<T[]> {
+/** Rows of `query()` whose `key` is among `values`, in chunks under SQLite's limit on bound values. */
+async function selectIn<T>(query: () => Knex.QueryBuilder, key: string, values: string[]): Promise<T[]> {
   const out: T[] = [];
   for (let i = 0; i < values.length; i += CHUNK) {
-    out.push(...((await k(table).select(columns).whereIn(key, values.slice(i, i + CHUNK))) as T[]));
+    out.push(...((await query().whereIn(key, values.slice(i, i + CHUNK))) as T[]));
   }
   return out;
 }
@@ -55,18 +57,24 @@ function idOf(raw: unknown): string | null {
 async function loadKnown(trx: Knex, userId: number, parsed: Parsed[], refused: Set<string>): Promise<Known> {
   const events = parsed.map((p) => p.event);
   const refs = unique(events.map((e) => (e.data as { eventId?: unknown }).eventId as string | undefined));
-  const stored = await selectIn<{ id: string; canonical: string; user_id: number }>(trx, 'events', ['id', 'canonical', 'user_id'], 'id', unique(events.map((e) => e.id)));
-  const cases = await selectIn<KnownCase>(trx, 'cases', ['id', 'student_id', 'review_status'], 'id', unique(events.map((e) => e.caseId)));
-  const canals = await selectIn<{ id: string; case_id: string }>(trx, 'canals', ['id', 'case_id'], 'id', unique(events.map((e) => e.canalId)));
-  const targets = await selectIn<KnownEvent>(trx, 'events', ['id', 'case_id', 'canal_id', 'type'], 'id', refs);
+  const stored = await selectIn<{ id: string; canonical: string; user_id: number }>(
+    () => trx('events').select('id', 'canonical', 'user_id'), 'id', unique(events.map((e) => e.id)));
+  const cases = await selectIn<KnownCase>(() => trx('cases').select('id', 'student_id', 'review_status'), 'id', unique(events.map((e) => e.caseId)));
+  const canals = await selectIn<{ id: string; case_id: string; student_id: number }>(
+    () => trx('canals').join('cases', 'cases.id', 'canals.case_id').select('canals.id', 'canals.case_id', 'cases.student_id'),
+    'canals.id', unique(events.map((e) => e.canalId)));
+  const targets = await selectIn<KnownEvent>(() => trx('events').select('id', 'case_id', 'canal_id', 'type', 'user_id'), 'id', refs);
+  // Only this student's cases can take their events; a new case starts with an empty tally.
+  const tallies = await loadTallies(trx, cases.filter((c) => c.student_id === userId).map((c) => c.id));
   return {
     userId,
     stored: new Map(stored.map((r) => [r.id, r])),
     kept: new Map(),
     cases: new Map(cases.map((c) => [c.id, c])),
-    canals: new Map(canals.map((c) => [c.id, c.case_id])),
+    canals: new Map(canals.map((c) => [c.id, { caseId: c.case_id, studentId: c.student_id }])),
     targets: new Map(targets.map((t) => [t.id, t])),
     refused,
+    tallies,
   };
 }
 
@@ -122,14 +130,25 @@ export async function ingestBatch(
     const touched = new Map<string, Set<string> | 'all'>();
     const submittedCases = new Set<string>();
     const receivedAt = now.toISOString();
+    const deferred = new Set<Parsed>();
 
-    for (const { index, event: e, canonical } of [...parsed].sort((a, b) => rank(a.event) - rank(b.event) || a.index - b.index)) {
-      const fate = priorFate(e, canonical, known) ?? refusal(e, known);
+    /** Decides one event: answers it, or keeps it to be stored. `final`: no more deferring. */
+    async function admit(p: Parsed, final: boolean): Promise<void> {
+      const { index, event: e, canonical } = p;
+      let fate = priorFate(e, canonical, known) ?? refusal(e, known);
+      if (!fate) {
+        const breach = limitBreach(e, known);
+        if (breach?.limit === 'canalsPerCase' && !final) {
+          deferred.add(p);
+          return;
+        }
+        if (breach) fate = { error: breach.error };
+      }
       if (fate) {
         results[index] = 'status' in fate ? { id: e.id, ...fate } : { id: e.id, status: 'rejected', ...fate };
         // Refused for good (not "send again"): a withdrawal naming it can never be stored.
-        if ('status' in fate ? fate.status === 'rejected' : !fate.retry) refused.add(e.id);
-        continue;
+        if (!('status' in fate) && !fate.retry) refused.add(e.id);
+        return;
       }
       if (e.type === 'case.opened') {
         const d = e.data;
@@ -140,10 +159,10 @@ export async function ingestBatch(
         known.cases.set(e.caseId, { id: e.caseId, student_id: userId, review_status: 'open' });
       } else if (e.type === 'canal.added') {
         await trx('canals').insert({ id: e.canalId, case_id: e.caseId, name: e.data.name, status: 'set-up', state_json: '{}' });
-        known.canals.set(e.canalId!, e.caseId);
+        known.canals.set(e.canalId!, { caseId: e.caseId, studentId: userId });
       }
+      keep(e, known);
       known.kept.set(e.id, canonical);
-      known.targets.set(e.id, { id: e.id, case_id: e.caseId, canal_id: e.canalId ?? null, type: e.type });
       toInsert.push({
         id: e.id, case_id: e.caseId, canal_id: e.canalId ?? null, type: e.type, at: e.at,
         data_json: JSON.stringify(e.data), canonical, user_id: userId, device_id: deviceId, received_at: receivedAt,
@@ -153,6 +172,15 @@ export async function ingestBatch(
       const t = touched.get(e.caseId);
       if (!e.canalId) touched.set(e.caseId, 'all');
       else if (t !== 'all') touched.set(e.caseId, (t ?? new Set()).add(e.canalId));
+    }
+
+    const order = [...parsed].sort((a, b) => rank(a.event) - rank(b.event) || a.index - b.index);
+    for (const p of order) await admit(p, false);
+    if (deferred.size > 0) {
+      // A canal set up past the limit may fit once the batch's withdrawals are in (voids come
+      // last); it is tried again, then the events that were told to wait, such as its steps.
+      const waiting = (r: ItemResult | undefined) => r?.status === 'rejected' && r.retry === true;
+      for (const p of order.filter((x) => deferred.has(x) || waiting(results[x.index]))) await admit(p, true);
     }
 
     // 250 rows × 10 columns stays well under SQLite's limits on one insert.

@@ -1,13 +1,14 @@
 import type { APIRoute } from 'astro';
 import { z } from 'zod';
+import { LIMITS } from '../../lib/rules/index';
 import { db } from '../../lib/server/db';
 import { isJson, json, jsonError, sameOrigin } from '../../lib/server/http';
 import { ingestBatch } from '../../lib/server/sync';
 import { readBody } from '../../lib/server/body';
 import { requireRole } from '../../lib/server/guard';
 
-const MAX_BYTES = 1024 * 1024;
-const MAX_EVENTS = 500;
+const MAX_BYTES = LIMITS.bytesPerBatch;
+const MAX_EVENTS = LIMITS.eventsPerBatch;
 
 const batchSchema = z.object({
   deviceId: z.string().trim().min(1, 'deviceId is required').max(80, 'deviceId must be at most 80 characters'),

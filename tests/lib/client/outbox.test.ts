@@ -2,9 +2,11 @@ import 'fake-indexeddb/auto';
 import { IDBFactory } from 'fake-indexeddb';
 import { beforeEach, describe, expect, it } from 'vitest';
 import type { LogEvent } from '../../../src/lib/rules/index';
-import { closeDb } from '../../../src/lib/client/db';
+import { set } from 'idb-keyval';
+import { closeDb, useStore } from '../../../src/lib/client/db';
 import {
   applyResults, clearUserIfSynced, countQueued, dismissRejected, importSynced, listEvents, listQueued, listServerCanals, putEvent, putServerCanals,
+  type StoredEvent,
 } from '../../../src/lib/client/outbox';
 
 let n = 0;
@@ -79,5 +81,42 @@ describe('importSynced', () => {
     const rows = await listEvents(3);
     expect(rows).toHaveLength(2);
     expect(rows.filter((r) => r.state === 'queued')).toHaveLength(1);
+  });
+});
+
+describe('applyResults, the retry cap', () => {
+  const DAY = 24 * 60 * 60 * 1000;
+  const t0 = new Date('2026-12-02T09:00:00.000Z');
+  const at = (ms: number) => new Date(t0.getTime() + ms);
+  const retry = (id: string) => [{ id, status: 'rejected' as const, error: 'the case of this event is not on the server yet; it will be sent again', retry: true }];
+
+  it('keeps sending an event the server asks for again, and marks it refused 7 days after the first such answer', async () => {
+    const e = event();
+    await putEvent(8, e);
+    await applyResults(8, retry(e.id), t0);
+    await applyResults(8, retry(e.id), at(7 * DAY - 1));
+    expect((await listEvents(8))[0]).toMatchObject({ state: 'queued', retries: 2, firstRetryAt: t0.toISOString() });
+    await applyResults(8, retry(e.id), at(7 * DAY));
+    const row = (await listEvents(8))[0]!;
+    expect(row).toMatchObject({ state: 'rejected', retries: 3 });
+    expect(row.error).toMatch(/^The server did not accept this after 7 days of retries/);
+    expect(await listQueued(8)).toEqual([]);
+  });
+
+  it('starts the 7 days of a row kept before the cap at its next retry answer', async () => {
+    const e = event();
+    await set([9, e.id], { userId: 9, event: e, seq: 1, state: 'queued', retries: 40, error: 'old' } satisfies StoredEvent, useStore('events', true));
+    await applyResults(9, retry(e.id), at(30 * DAY));
+    expect((await listEvents(9))[0]).toMatchObject({ state: 'queued', retries: 41, firstRetryAt: at(30 * DAY).toISOString() });
+    await applyResults(9, retry(e.id), at(37 * DAY));
+    expect((await listEvents(9))[0]!.state).toBe('rejected');
+  });
+
+  it('lets an event go through after retries as before', async () => {
+    const e = event();
+    await putEvent(10, e);
+    await applyResults(10, retry(e.id), t0);
+    await applyResults(10, [{ id: e.id, status: 'stored' }], at(8 * DAY));
+    expect((await listEvents(10))[0]).toMatchObject({ state: 'synced', retries: 1 });
   });
 });

@@ -105,6 +105,29 @@ describe('syncOnce', () => {
   });
 });
 
+describe('syncOnce, the retry cap', () => {
+  it('stops sending an event the server has asked for again for 7 days, by the clock it is given', async () => {
+    const e = event();
+    await putEvent(1, e);
+    let clock = new Date('2026-12-02T09:00:00.000Z');
+    const sent: string[] = [];
+    const deps: SyncDeps = {
+      whoIsSignedIn: me(1),
+      now: () => clock,
+      post: async (_d, batch) => {
+        sent.push(...batch.map((x) => x.id));
+        return { kind: 'ok', value: { results: batch.map((x) => ({ id: x.id, status: 'rejected' as const, error: 'the case of this event is not on the server yet; it will be sent again', retry: true })), canals: [] } };
+      },
+    };
+    await syncOnce(1, 'tablet-1', deps);
+    clock = new Date(clock.getTime() + 7 * 24 * 3600 * 1000);
+    await syncOnce(1, 'tablet-1', deps);
+    await syncOnce(1, 'tablet-1', deps);
+    expect(sent).toEqual([e.id, e.id]);
+    expect((await listEvents(1))[0]).toMatchObject({ state: 'rejected', retries: 2 });
+  });
+});
+
 describe('toBatches', () => {
   it('cuts the outbox into batches of at most 500 events', () => {
     const rows = Array.from({ length: 1201 }, () => ({ userId: 1, event: event(), seq: 0, state: 'queued' as const }));

@@ -20,9 +20,15 @@ const error = (raw: unknown) => {
   return r.ok ? 'accepted' : r.error;
 };
 const AT_MESSAGE = 'at must be an ISO 8601 instant with a time zone, such as 2026-12-02T09:41:07.250Z';
+const FRACTION_MESSAGE = 'at may have at most 3 digits after the seconds (milliseconds), such as 2026-12-02T09:41:07.250Z';
 
 describe('at', () => {
-  const accepted = ['2026-12-02T09:41:07+0100', '2026-12-02T09:41:07-23:59', '2026-12-02T09:41Z', '2026-12-02T09:41:07.123456789Z', '2024-02-29T09:00:00Z'];
+  // Every form taken before the fraction rule (offsets with or without a colon, no seconds)
+  // is still taken: the contract only grows.
+  const accepted = [
+    '2026-12-02T09:41:07+0100', '2026-12-02T09:41:07-23:59', '2026-12-02T09:41Z', '2024-02-29T09:00:00Z',
+    '2026-12-02T09:41:07.1Z', '2026-12-02T09:41:07.25+01:00', '2026-12-02T09:41:07.250Z', '2026-12-02T09:41:07.123-0530',
+  ];
   const refused = ['2026-12-02T09:41:07+99:99', '2026-02-29T09:00:00Z', '2026-12-02t09:41:07Z', '2026-12-02T24:00:00Z', '2026-12-02T09:41:07'];
   it('takes what zod’s datetime({ offset: true }) takes and Date can read, kept as written', () => {
     const zodInstant = z.string().datetime({ offset: true });
@@ -32,6 +38,11 @@ describe('at', () => {
       expect(r.ok ? r.event.at : r.error, at).toBe(expected ? at : AT_MESSAGE);
     }
     expect(accepted.map((at) => error(ev({ at })))).toEqual(accepted.map(() => 'accepted'));
+  });
+  it('refuses more than 3 digits after the seconds, saying so', () => {
+    for (const at of ['2026-12-02T09:41:07.1234Z', '2026-12-02T09:41:07.123456789Z', '2026-12-02T09:41:07.0000+01:00']) {
+      expect(error(ev({ at })), at).toBe(FRACTION_MESSAGE);
+    }
   });
 });
 
