@@ -1,14 +1,15 @@
 /**
- * `npm run serve`: Coneline for real use. Migrates DB_FILE but never seeds it, refuses to
+ * `npm run serve`: Coneline for real use. Run as `node --import tsx`, one process, rather than
+ * through the tsx command, which relays signals to a child and may SIGKILL it when the relay
+ * is slow: the server this starts would then outlive it, holding the port. Migrates DB_FILE but never seeds it, refuses to
  * start while anything a real install needs is missing (scripts/lib/preflight.ts), builds
  * when needed, and runs the server entry in production mode.
  *   npm run serve [-- --no-build]    --no-build: serve dist/ as it is (a build made elsewhere)
  */
 import { spawn } from 'node:child_process';
-import { existsSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { parseArgs } from 'node:util';
-import { buildIfNeeded } from './lib/build.ts';
+import { buildIfNeeded, requireBuild } from './lib/build.ts';
 import { installFacts, prepareDb } from './lib/dbtasks.ts';
 import { preflight } from './lib/preflight.ts';
 
@@ -30,11 +31,8 @@ if (facts.activeAccounts === 0) {
   console.log('No account can sign in yet: make the first director with\n  npm run user:add -- --email E --name N --role director --password P');
 }
 
-if (!values['no-build']) buildIfNeeded(root);
-else if (!existsSync(resolve(root, process.env.ASTRO_OUT_DIR ?? 'dist', 'server/entry.mjs'))) {
-  console.error('Coneline will not start: --no-build, but there is no build in dist/ (run npm run build).');
-  process.exit(1);
-}
+if (values['no-build']) requireBuild(root);
+else buildIfNeeded(root);
 
 const server = spawn(process.execPath, [resolve(root, 'scripts/server.mjs')], {
   cwd: root,

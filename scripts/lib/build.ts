@@ -44,3 +44,11 @@ export function buildIfNeeded(root: string): void {
   if (r.status !== 0) process.exit(r.status ?? 1);
   writeFileSync(resolve(root, 'dist/.coneline-build-hosts'), addressStamp());
 }
+
+/** For `--no-build`: go on with the build as it is, or stop when there is none. */
+export function requireBuild(root: string): void {
+  const entry = resolve(root, process.env.ASTRO_OUT_DIR ?? 'dist', 'server/entry.mjs');
+  if (existsSync(entry)) return;
+  console.error(`Coneline cannot start: --no-build, but there is no build at ${entry} (run npm run build).`);
+  process.exit(1);
+}

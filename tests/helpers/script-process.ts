@@ -1,6 +1,6 @@
 /** Runs `npm start` or `npm run serve` (through tsx) as a test would from a shell. */
 import { spawn, type ChildProcess } from 'node:child_process';
-import { ROOT, TSX } from './paths';
+import { ROOT } from './paths';
 import { freePort } from './server';
 
 // The variables these scripts read, cleared so the machine's own environment cannot leak in.
@@ -12,17 +12,21 @@ export interface ScriptRun {
   out: string;
   baseUrl: string;
   proc: ChildProcess;
+  /** Its exit code once it and everything it started have closed their output. */
+  done: Promise<number | null>;
   /** Ends it with SIGTERM, as a service manager would, and resolves to its exit code. */
   stop(): Promise<number | null>;
 }
 
-/** Starts `script` with `args` on a free port; resolves once it listens or has exited. */
-export async function runScript(script: string, args: string[], env: Record<string, string>): Promise<ScriptRun> {
+/** Starts `node …argv` (as package.json runs the script) on a free port; resolves once it listens or has exited. */
+export async function runScript(argv: string[], env: Record<string, string>): Promise<ScriptRun> {
   const port = await freePort();
   const fullEnv: NodeJS.ProcessEnv = { ...process.env, PORT: String(port), ...env };
   for (const name of CLEARED) if (!(name in env)) delete fullEnv[name];
   let out = '';
-  const proc = spawn(process.execPath, [TSX, script, ...args], { cwd: ROOT, env: fullEnv, stdio: ['ignore', 'pipe', 'pipe'] });
+  // A process group of its own (tsx, the script, the server it starts): stop() signals all
+  // of them at once, as Ctrl-C in a terminal would, so none is left holding the port.
+  const proc = spawn(process.execPath, argv, { cwd: ROOT, env: fullEnv, stdio: ['ignore', 'pipe', 'pipe'], detached: true });
   proc.stdout!.on('data', (d: Buffer) => (out += d.toString()));
   proc.stderr!.on('data', (d: Buffer) => (out += d.toString()));
   // 'close' comes after all the output has been read, unlike 'exit'.
@@ -35,9 +39,17 @@ export async function runScript(script: string, args: string[], env: Record<stri
     get out() { return out; },
     baseUrl: `http://127.0.0.1:${port}`,
     proc,
+    done,
     async stop() {
-      if (!closed) proc.kill('SIGTERM');
-      return done;
+      if (closed) return done;
+      const group = -proc.pid!;
+      process.kill(group, 'SIGTERM');
+      const stuck = setTimeout(() => {
+        try { process.kill(group, 'SIGKILL'); } catch { /* already gone */ }
+      }, 15_000);
+      const code = await done;
+      clearTimeout(stuck);
+      return code;
     },
   };
 }
