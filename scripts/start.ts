@@ -1,14 +1,19 @@
 /**
- * `npm start`: migrates, seeds the demo into an empty database, builds when the sources are
- * newer than the build, and serves Coneline. No variables needed.
+ * `npm start`: the one-command demo. Migrates, seeds the invented demo clinic into an empty
+ * database, builds when the sources are newer than the build, and serves Coneline. No
+ * variables needed. Real installs use `npm run serve`, which never seeds.
+ *   npm start [-- --no-build]    --no-build: serve dist/ as it is
  */
 import { spawn } from 'node:child_process';
 import { resolve } from 'node:path';
-import { buildIfNeeded } from './lib/build.ts';
-import { prepareDb } from './lib/dbtasks.ts';
+import { parseArgs } from 'node:util';
+import { DEMO_PASSWORD } from '../db/demo/clinic.ts';
+import { buildIfNeeded, requireBuild } from './lib/build.ts';
+import { installFacts, prepareDb } from './lib/dbtasks.ts';
 import { tlsEnv } from './lib/tls.ts';
 
 const root = resolve(import.meta.dirname, '..');
+const { values } = parseArgs({ options: { 'no-build': { type: 'boolean', default: false } }, strict: true });
 const dbFile = resolve(process.env.DB_FILE ?? 'data/coneline.sqlite');
 process.env.DB_FILE = dbFile;
 const port = process.env.PORT ?? '4321';
@@ -17,7 +22,13 @@ const host = process.env.HOST ?? (https ? '0.0.0.0' : '127.0.0.1');
 
 const { seeded } = await prepareDb(dbFile, { seedIfEmpty: true });
 if (seeded) console.log(`Demo clinic seeded into ${dbFile}.`);
-buildIfNeeded(root);
+const { activeDemoAccounts } = await installFacts(dbFile);
+console.log(
+  'This is the Coneline demo: npm start seeds an invented clinic, whose password is published, into an empty database.\n' +
+    'For a real install use npm run serve: it never seeds, and will not start while demo accounts are active.',
+);
+if (values['no-build']) requireBuild(root);
+else buildIfNeeded(root);
 const tls = https ? await tlsEnv(root) : {};
 
 const server = spawn(process.execPath, [resolve(root, 'scripts/server.mjs')], {
@@ -27,7 +38,8 @@ const server = spawn(process.execPath, [resolve(root, 'scripts/server.mjs')], {
   env: { ...process.env, ...tls, HOST: host, PORT: port, NODE_ENV: 'production' },
 });
 const scheme = https ? 'https' : 'http';
-console.log(`Coneline: ${scheme}://localhost:${port}  (demo password: coneline-demo-2026)`);
+const password = activeDemoAccounts > 0 ? `  (demo password: ${DEMO_PASSWORD})` : '';
+console.log(`Coneline: ${scheme}://localhost:${port}${password}`);
 const stop = () => server.kill('SIGTERM');
 process.on('SIGINT', stop);
 process.on('SIGTERM', stop);
