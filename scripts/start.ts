@@ -1,52 +1,34 @@
 /**
- * `npm start`: migrates, seeds the demo into an empty database, builds when the sources are
- * newer than the build, and serves Coneline. No variables needed.
+ * `npm start`: the one-command demo. Migrates, seeds the invented demo clinic into an empty
+ * database, builds when the sources are newer than the build, and serves Coneline. No
+ * variables needed. Real installs use `npm run serve`, which never seeds.
+ *   npm start [-- --no-build]    --no-build: serve dist/ as it is
  */
-import { spawn, spawnSync } from 'node:child_process';
-import { existsSync, readFileSync, readdirSync, statSync, writeFileSync } from 'node:fs';
-import { networkInterfaces } from 'node:os';
-import { join, resolve } from 'node:path';
-import { prepareDb } from './lib/dbtasks.ts';
+import { spawn } from 'node:child_process';
+import { resolve } from 'node:path';
+import { parseArgs } from 'node:util';
+import { DEMO_PASSWORD } from '../db/demo/clinic.ts';
+import { buildIfNeeded, requireBuild } from './lib/build.ts';
+import { installFacts, prepareDb } from './lib/dbtasks.ts';
 import { tlsEnv } from './lib/tls.ts';
 
 const root = resolve(import.meta.dirname, '..');
+const { values } = parseArgs({ options: { 'no-build': { type: 'boolean', default: false } }, strict: true });
 const dbFile = resolve(process.env.DB_FILE ?? 'data/coneline.sqlite');
 process.env.DB_FILE = dbFile;
 const port = process.env.PORT ?? '4321';
 const https = process.env.HTTPS === '1';
 const host = process.env.HOST ?? (https ? '0.0.0.0' : '127.0.0.1');
 
-function newest(path: string): number {
-  if (!existsSync(path)) return 0;
-  const st = statSync(path);
-  if (!st.isDirectory()) return st.mtimeMs;
-  return readdirSync(path).reduce((m, f) => Math.max(m, newest(join(path, f))), st.mtimeMs);
-}
-
-/** The addresses the origin check lets in are fixed at build time (astro.config.mjs). */
-function addressStamp(): string {
-  const ips = Object.values(networkInterfaces()).flat().filter((n) => n && n.family === 'IPv4').map((n) => n!.address).sort();
-  return [...ips, process.env.PUBLIC_HOST ?? ''].join(',');
-}
-
-function buildIfNeeded(): void {
-  const entry = resolve(root, 'dist/server/entry.mjs');
-  const stampFile = resolve(root, 'dist/.coneline-build-hosts');
-  const stampOk = existsSync(stampFile) && readFileSync(stampFile, 'utf8') === addressStamp();
-  const built = existsSync(entry) && stampOk ? statSync(entry).mtimeMs : 0;
-  const sources = Math.max(
-    ...['src', 'public', 'db/migrations', 'astro.config.mjs', 'auth.config.ts', 'package-lock.json'].map((p) => newest(resolve(root, p))),
-  );
-  if (built > sources) return;
-  console.log('Building Coneline…');
-  const r = spawnSync(process.execPath, [resolve(root, 'node_modules/astro/astro.js'), 'build'], { cwd: root, stdio: 'inherit' });
-  if (r.status !== 0) process.exit(r.status ?? 1);
-  writeFileSync(stampFile, addressStamp());
-}
-
 const { seeded } = await prepareDb(dbFile, { seedIfEmpty: true });
 if (seeded) console.log(`Demo clinic seeded into ${dbFile}.`);
-buildIfNeeded();
+const { activeDemoAccounts } = await installFacts(dbFile);
+console.log(
+  'This is the Coneline demo: npm start seeds an invented clinic, whose password is published, into an empty database.\n' +
+    'For a real install use npm run serve: it never seeds, and will not start while demo accounts are active.',
+);
+if (values['no-build']) requireBuild(root);
+else buildIfNeeded(root);
 const tls = https ? await tlsEnv(root) : {};
 
 const server = spawn(process.execPath, [resolve(root, 'scripts/server.mjs')], {
@@ -56,7 +38,8 @@ const server = spawn(process.execPath, [resolve(root, 'scripts/server.mjs')], {
   env: { ...process.env, ...tls, HOST: host, PORT: port, NODE_ENV: 'production' },
 });
 const scheme = https ? 'https' : 'http';
-console.log(`Coneline: ${scheme}://localhost:${port}  (demo password: coneline-demo-2026)`);
+const password = activeDemoAccounts > 0 ? `  (demo password: ${DEMO_PASSWORD})` : '';
+console.log(`Coneline: ${scheme}://localhost:${port}${password}`);
 const stop = () => server.kill('SIGTERM');
 process.on('SIGINT', stop);
 process.on('SIGTERM', stop);

@@ -1,6 +1,8 @@
 /**
  * Demo data: the invented Larkfield teaching clinic. Replaces whatever is in the database,
  * so run it on an empty or throw-away one (`npm start` seeds only an empty database).
+ * Its accounts and cohort are marked `demo`: while one of them is active the installation is
+ * in demo mode, and `npm run demo:remove` takes all of it out again.
  */
 import type { Knex } from 'knex';
 import { ASSIGNMENTS, COHORT, DEMO_PASSWORD, PEOPLE, demoCases } from '../demo/clinic';
@@ -15,13 +17,13 @@ const TABLES = [
 export async function seed(knex: Knex): Promise<void> {
   for (const t of TABLES) await knex(t).del();
 
-  const [cohort] = await knex('cohorts').insert(COHORT).returning('id');
+  const [cohort] = await knex('cohorts').insert({ ...COHORT, demo: true }).returning('id');
   const cohortId = typeof cohort === 'object' ? (cohort as { id: number }).id : (cohort as number);
   const password_hash = await hashPassword(DEMO_PASSWORD);
   const ids = new Map<string, number>();
   for (const p of PEOPLE) {
     const [row] = await knex('users')
-      .insert({ email: p.email, name: p.name, role: p.role, password_hash, cohort_id: p.role === 'student' ? cohortId : null })
+      .insert({ email: p.email, name: p.name, role: p.role, password_hash, demo: true, cohort_id: p.role === 'student' ? cohortId : null })
       .returning('id');
     ids.set(p.key, typeof row === 'object' ? (row as { id: number }).id : (row as number));
   }

@@ -2,6 +2,7 @@
 import knexFactory, { type Knex } from 'knex';
 import { mkdirSync } from 'node:fs';
 import { dirname, resolve } from 'node:path';
+import { activeDemoAccounts } from '../../src/lib/server/demo.ts';
 import { sqliteOptions } from '../../src/lib/server/knex-options.ts';
 
 const root = resolve(import.meta.dirname, '../..');
@@ -27,6 +28,17 @@ export async function prepareDb(file: string, opts: { seed?: boolean; seedIfEmpt
     }
     if (seed) await k.seed.run();
     return { seeded: seed };
+  } finally {
+    await k.destroy();
+  }
+}
+
+/** What `npm run serve` checks before starting: demo accounts still active, and whether anyone can sign in. */
+export async function installFacts(file: string): Promise<{ activeDemoAccounts: number; activeAccounts: number }> {
+  const k = openDb(file);
+  try {
+    const row = (await k('users').where({ active: true }).count({ n: '*' }).first()) as { n: number | string } | undefined;
+    return { activeDemoAccounts: await activeDemoAccounts(k), activeAccounts: Number(row?.n ?? 0) };
   } finally {
     await k.destroy();
   }

@@ -58,6 +58,21 @@ describe('the migrations', () => {
     ).rejects.toThrow(/FOREIGN KEY/);
   });
 
+  it('mark no account or cohort as demo unless the demo seed says so, and roll the marker back keeping the accounts', async () => {
+    await k.migrate.latest({ migrationSource: bundledMigrations });
+    const [cohortId] = (await k('cohorts').insert({ name: 'Class of 2030' }).returning('id')).map((r) => (r as { id: number }).id);
+    const [userId] = (await k('users').insert({ email: 'real@example.org', name: 'Real Director', role: 'director', cohort_id: cohortId }).returning('id')).map((r) => (r as { id: number }).id);
+    await k('sessions').insert({ id: 's1', user_id: userId, created_at: '2026-12-03T00:00:00Z', expires_at: '2026-12-04T00:00:00Z' });
+    expect(await k('users').first('demo')).toMatchObject({ demo: 0 });
+    expect(await k('cohorts').first('demo')).toMatchObject({ demo: 0 });
+    await k.migrate.down({ migrationSource: bundledMigrations });
+    const user = (await k('users').first()) as Record<string, unknown>;
+    expect(user).not.toHaveProperty('demo');
+    // Rebuilding the tables must not fire their foreign keys' ON DELETE actions.
+    expect(user).toMatchObject({ email: 'real@example.org', cohort_id: cohortId });
+    expect(await k('sessions').pluck('id')).toEqual(['s1']);
+  });
+
   it('are recorded under the same names by the Knex CLI and by the server', async () => {
     const file = join(dir, 'cli.sqlite');
     execFileSync(process.execPath, [TSX, 'node_modules/knex/bin/cli.js', 'migrate:latest', '--knexfile', 'knexfile.ts'], {

@@ -123,6 +123,13 @@ async function seriousViolations(page: Page): Promise<string[]> {
   return result.violations.filter((v) => v.impact === 'serious' || v.impact === 'critical').map((v) => `${v.id}: ${v.help} (${v.nodes.map((n) => n.target.join(' ')).join(', ')})`);
 }
 
+/** The demo banner is there, and adds no more than one slim line to the top bar. */
+async function expectSlimDemoBanner(page: Page): Promise<void> {
+  const banner = page.getByRole('banner').getByTestId('demo-banner');
+  await expect(banner.textContent()).resolves.toContain('Demo clinic');
+  expect((await banner.boundingBox())!.height).toBeLessThanOrEqual(28);
+}
+
 async function syncState(page: Page): Promise<string | null> {
   return page.getByTestId('sync-state').getAttribute('data-state');
 }
@@ -160,6 +167,7 @@ describe('the chairside island, offline first', () => {
     await page.reload();
     await page.getByTestId('new-case').waitFor();
     expect(await page.evaluate(() => navigator.serviceWorker.controller !== null)).toBe(true);
+    await expectSlimDemoBanner(page);
 
     await context.setOffline(true);
     await setUpDistal36(page);
@@ -171,6 +179,8 @@ describe('the chairside island, offline first', () => {
 
     await page.reload();
     await page.locator('[data-testid="step"][data-card="done"]').waitFor();
+    // Reloaded with no network: demo mode comes from what /api/me said last time.
+    await expectSlimDemoBanner(page);
     await expect(page.getByTestId('tab-D').textContent()).resolves.toContain('seared');
     const diagram = page.getByTestId('canal-diagram');
     await expect(diagram.locator('[data-part="accessory"]').count()).resolves.toBe(4);

@@ -21,6 +21,17 @@ async function seriousViolations(page: Page): Promise<string[]> {
 }
 
 describe('signing in in Chromium', () => {
+  it('shows the demo banner on the sign-in page, one slim line that passes axe, while the demo clinic is in', async () => {
+    const context = await browser.newContext({ viewport: { width: 768, height: 1024 } });
+    const page = await context.newPage();
+    await page.goto(`${server.baseUrl}/signin`);
+    const banner = page.getByTestId('demo-banner');
+    await expect(banner.textContent()).resolves.toContain('Demo clinic');
+    expect((await banner.boundingBox())!.height).toBeLessThanOrEqual(28);
+    expect(await seriousViolations(page)).toEqual([]);
+    await context.close();
+  });
+
   it.each([
     ['student', DEMO.mira, 'Your cases'],
     ['attending', DEMO.helen, 'Waiting for your review'],

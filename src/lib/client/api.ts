@@ -1,8 +1,10 @@
 import type { CanalResult, LogEvent } from '../rules/core';
 import type { SyncResult } from './outbox';
 
-/** The signed-in user as `/api/me` answers it. */
+/** The signed-in user as the tablet keeps them. */
 export interface Me { id: number; email?: string; name: string; role: 'student' | 'attending' | 'director' }
+/** What `/api/me` answers: the user, and whether the installation is in demo mode. */
+export interface MeAnswer extends Me { demo: boolean }
 
 /** What came back: a value, "not signed in", or no answer at all (offline, server down). */
 export type Answer<T> =
@@ -29,8 +31,8 @@ async function call<T>(path: string, init?: RequestInit): Promise<Answer<T>> {
   return { kind: 'status', status: res.status, error: body.error, ...(body.code ? { code: body.code } : {}) };
 }
 
-export function fetchMe(): Promise<Answer<Me>> {
-  return call<Me>('/api/me');
+export function fetchMe(): Promise<Answer<MeAnswer>> {
+  return call<MeAnswer>('/api/me');
 }
 
 export interface SyncAnswer { results: SyncResult[]; canals: CanalResult[] }

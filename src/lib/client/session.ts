@@ -9,9 +9,14 @@ export interface Identity {
   source: 'server' | 'tablet' | null;
   /** The server answered 401: nobody is signed in. */
   signedOut: boolean;
+  /** The installation is in demo mode: as /api/me last said, so it shows offline too. */
+  demo: boolean;
 }
 
 const LAST_USER = 'lastUser';
+// Kept apart from the user and through sign-outs: it describes the server, not a person, and
+// the tablet learns it only from a signed-in answer of /api/me.
+const DEMO_MODE = 'demoMode';
 
 /** This browser's own device id, made once. */
 export async function deviceId(): Promise<string> {
@@ -32,17 +37,20 @@ export async function resolveIdentity(): Promise<Identity> {
   const me = await fetchMe();
   if (me.kind === 'ok') {
     const { id, name, role } = me.value;
+    const demo = me.value.demo === true;
     if (last && last.id !== id) await clearUserIfSynced(last.id);
     await setMeta(LAST_USER, { id, name, role } satisfies Me);
-    return { user: { id, name, role }, source: 'server', signedOut: false };
+    await setMeta(DEMO_MODE, demo);
+    return { user: { id, name, role }, source: 'server', signedOut: false, demo };
   }
+  const demo = (await getMeta<boolean>(DEMO_MODE)) === true;
   if (me.kind === 'status' && me.status === 401) {
     if (last) await clearUserIfSynced(last.id);
     // Offline later, nobody should record under a user who has signed out.
     await delMeta(LAST_USER);
-    return { user: null, source: null, signedOut: true };
+    return { user: null, source: null, signedOut: true, demo };
   }
-  return last ? { user: last, source: 'tablet', signedOut: false } : { user: null, source: null, signedOut: false };
+  return last ? { user: last, source: 'tablet', signedOut: false, demo } : { user: null, source: null, signedOut: false, demo };
 }
 
 /** After a sign-out anywhere in this browser: nobody works offline as that user any more. */

@@ -73,7 +73,7 @@ export const useChairside = create<ChairsideState>((set, get) => {
 
   return {
     phase: 'loading',
-    identity: { user: null, source: null, signedOut: false },
+    identity: { user: null, source: null, signedOut: false, demo: false },
     deviceId: '',
     rows: [],
     server: {},

@@ -25,9 +25,22 @@ afterEach(() => { vi.unstubAllGlobals(); });
 describe('resolveIdentity', () => {
   it('keeps the signed-in user so the tablet works offline as them later', async () => {
     vi.stubGlobal('fetch', answer(200, mira));
-    expect(await resolveIdentity()).toEqual({ user: mira, source: 'server', signedOut: false });
+    expect(await resolveIdentity()).toEqual({ user: mira, source: 'server', signedOut: false, demo: false });
     vi.stubGlobal('fetch', offline);
-    expect(await resolveIdentity()).toEqual({ user: mira, source: 'tablet', signedOut: false });
+    expect(await resolveIdentity()).toEqual({ user: mira, source: 'tablet', signedOut: false, demo: false });
+  });
+
+  it('keeps demo mode as the server last said it, offline and after a sign-out, until the server says otherwise', async () => {
+    vi.stubGlobal('fetch', answer(200, { ...mira, demo: true }));
+    expect((await resolveIdentity()).demo).toBe(true);
+    vi.stubGlobal('fetch', offline);
+    expect(await resolveIdentity()).toEqual({ user: mira, source: 'tablet', signedOut: false, demo: true });
+    vi.stubGlobal('fetch', answer(401, { error: 'Sign in first.' }));
+    expect(await resolveIdentity()).toEqual({ user: null, source: null, signedOut: true, demo: true });
+    vi.stubGlobal('fetch', answer(200, { ...tomas, demo: false }));
+    expect((await resolveIdentity()).demo).toBe(false);
+    vi.stubGlobal('fetch', offline);
+    expect((await resolveIdentity()).demo).toBe(false);
   });
 
   it('clears the previous user\'s data when someone else signs in and all of it was sent', async () => {
@@ -54,7 +67,7 @@ describe('resolveIdentity', () => {
     vi.stubGlobal('fetch', answer(200, mira));
     await resolveIdentity();
     vi.stubGlobal('fetch', answer(401, { error: 'Sign in first.' }));
-    expect(await resolveIdentity()).toEqual({ user: null, source: null, signedOut: true });
+    expect(await resolveIdentity()).toEqual({ user: null, source: null, signedOut: true, demo: false });
     vi.stubGlobal('fetch', offline);
     expect((await resolveIdentity()).user).toBeNull();
   });

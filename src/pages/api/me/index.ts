@@ -1,8 +1,10 @@
 import type { APIRoute } from 'astro';
+import { demoMode } from '../../../lib/server/demo-mode';
 import { json, jsonError } from '../../../lib/server/http';
 
-export const GET: APIRoute = ({ locals }) => {
+export const GET: APIRoute = async ({ locals }) => {
   const user = locals.user;
   if (!user) return jsonError(401, 'Sign in first.');
-  return json({ id: user.id, email: user.email, name: user.name, role: user.role });
+  // `demo`: the chairside island is a static page and learns from here whether to show the banner.
+  return json({ id: user.id, email: user.email, name: user.name, role: user.role, demo: await demoMode() });
 };
