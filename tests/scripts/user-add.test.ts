@@ -48,7 +48,7 @@ describe('npm run user:add', () => {
   it('refuses a password under 12 characters, saying why', () => {
     const r = userAdd('--email', 'short@example.org', '--name', 'Shorty', '--role', 'student', '--password', 'elevenchars');
     expect(r.code).toBe(1);
-    expect(r.err).toContain('password must be at least 12 characters');
+    expect(r.err).toContain('Use at least 12 characters.');
   });
 
   it('refuses an unknown role and a missing field with a usage line, not a stack trace', () => {
