@@ -1,6 +1,7 @@
 /** The server's one Knex instance, with the migrations bundled into the build. */
 import knexFactory, { type Knex } from 'knex';
 import { config } from './config';
+import { holdDatabaseLock } from './data-lock';
 import { secureDataDir, secureDbFile } from './files';
 import { sqliteOptions } from './knex-options';
 
@@ -32,6 +33,7 @@ export function db(): Promise<Knex> {
   if (!ready) {
     const { dbFile: file, dataDir } = config();
     secureDataDir(dataDir);
+    holdDatabaseLock(dataDir); // db:restore refuses while a server holds it
     secureDbFile(file);
     instance = knexFactory(sqliteOptions(file));
     const k = instance;
