@@ -1,11 +1,10 @@
 // The Knex CLI's settings. Run it through tsx (see package.json's db:* scripts): the CLI
 // cannot load TypeScript migrations on its own.
-import { mkdirSync } from 'node:fs';
-import { dirname, resolve } from 'node:path';
+import { dataPaths, secureDbFile } from './src/lib/server/files.ts';
 import { sqliteOptions } from './src/lib/server/knex-options.ts';
 
-const filename = resolve(process.env.DB_FILE ?? 'data/coneline.sqlite');
-mkdirSync(dirname(filename), { recursive: true });
+const filename = dataPaths().dbFile;
+secureDbFile(filename);
 
 export default {
   ...sqliteOptions(filename),

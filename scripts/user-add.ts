@@ -1,35 +1,66 @@
 /**
- * Creates an account from the command line (the first director on a fresh install):
- *   npm run user:add -- --email E --name N --role student|attending|director --password P [--attending E] [--cohort NAME]
+ * Creates an account from the command line (the first director on a fresh install). The
+ * password is asked for in a terminal, or read as one line from standard input.
  */
 import { parseArgs } from 'node:util';
-import { resolve } from 'node:path';
 import { ZodError } from 'zod';
 import { openDb } from './lib/dbtasks.ts';
+import { askHidden, readFirstLine } from './lib/read-password.ts';
+import { dataPaths } from '../src/lib/server/files.ts';
+import { passwordProblem } from '../src/lib/server/password-policy.ts';
 import { createUser, findUserByEmail, type NewUser } from '../src/lib/server/users.ts';
+
+const USAGE = `usage: npm run user:add -- --email E --name N --role student|attending|director [--attending E] [--cohort NAME]
+  The password is asked for (not shown) when run in a terminal; --password-stdin reads it as
+  one line from standard input instead. --password P is for scripts only: it shows the
+  password in the process list to every user of the machine, and in the shell's history.`;
 
 function fail(message: string): never {
   console.error(`user:add: ${message}`);
   process.exit(1);
 }
 
-let values;
-try {
-  ({ values } = parseArgs({
-    options: {
-      email: { type: 'string' }, name: { type: 'string' }, role: { type: 'string' }, password: { type: 'string' },
-      attending: { type: 'string' }, cohort: { type: 'string' },
-    },
-    strict: true,
-  }));
-} catch (err) {
-  fail((err as Error).message);
-}
-for (const key of ['email', 'name', 'role', 'password'] as const) {
-  if (!values[key]) fail(`--${key} is required (usage: --email E --name N --role student|attending|director --password P [--attending E] [--cohort NAME])`);
+function options() {
+  try {
+    return parseArgs({
+      options: {
+        email: { type: 'string' }, name: { type: 'string' }, role: { type: 'string' }, password: { type: 'string' },
+        'password-stdin': { type: 'boolean' }, attending: { type: 'string' }, cohort: { type: 'string' },
+      },
+      strict: true,
+    }).values;
+  } catch (err) {
+    return fail(`${(err as Error).message}\n${USAGE}`);
+  }
 }
 
-const k = openDb(resolve(process.env.DB_FILE ?? 'data/coneline.sqlite'));
+const values = options();
+for (const key of ['email', 'name', 'role'] as const) {
+  if (!values[key]) fail(`--${key} is required\n${USAGE}`);
+}
+
+/** The password from wherever it was given; refused early so nobody types it twice in vain. */
+async function password(): Promise<string> {
+  if (values.password !== undefined && values['password-stdin']) fail('use --password-stdin or --password, not both');
+  let given = values.password;
+  if (values['password-stdin']) {
+    given = await readFirstLine(process.stdin);
+    if (!given) fail('no password on standard input (one line is read)');
+  }
+  if (given !== undefined) {
+    const problem = passwordProblem(given);
+    return problem ? fail(problem) : given;
+  }
+  if (!process.stdin.isTTY) fail('no password: run it in a terminal to be asked, or give one line on standard input with --password-stdin');
+  const first = await askHidden('Password: ');
+  const problem = passwordProblem(first);
+  if (problem) fail(problem);
+  if ((await askHidden('Same password again: ')) !== first) fail('the two passwords differ; nothing was created');
+  return first;
+}
+
+const secret = await password();
+const k = openDb(dataPaths().dbFile);
 try {
   await k.migrate.latest();
   let cohortId: number | null = null;
@@ -41,7 +72,7 @@ try {
   if (values.attending && (!attending || attending.role !== 'attending')) fail(`--attending ${values.attending} is not an attending's account`);
   if (values.attending && values.role !== 'student') fail('--attending goes with --role student');
   const user = await createUser(k, {
-    email: values.email!, name: values.name!, role: values.role as NewUser['role'], password: values.password!, cohortId,
+    email: values.email!, name: values.name!, role: values.role as NewUser['role'], password: secret, cohortId,
   });
   if (attending) await k('assignments').insert({ attending_id: attending.id, student_id: user.id });
   console.log(`Created ${user.role} ${user.email}${attending ? `, assigned to ${attending.email}` : ''}.`);

@@ -1,14 +1,14 @@
 /** Migrating and seeding from the command line and the test harness (run under tsx). */
 import knexFactory, { type Knex } from 'knex';
-import { mkdirSync } from 'node:fs';
-import { dirname, resolve } from 'node:path';
+import { resolve } from 'node:path';
 import { activeDemoAccounts } from '../../src/lib/server/demo.ts';
+import { secureDbFile } from '../../src/lib/server/files.ts';
 import { sqliteOptions } from '../../src/lib/server/knex-options.ts';
 
 const root = resolve(import.meta.dirname, '../..');
 
 export function openDb(file: string): Knex {
-  mkdirSync(dirname(file), { recursive: true });
+  secureDbFile(file);
   return knexFactory({
     ...sqliteOptions(file),
     migrations: { directory: resolve(root, 'db/migrations'), extension: 'ts', loadExtensions: ['.ts'] },

@@ -3,8 +3,9 @@
  * that makes `npm start` work on a fresh machine with no variables set.
  */
 import { randomBytes } from 'node:crypto';
-import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
-import { dirname, resolve } from 'node:path';
+import { existsSync, readFileSync, writeFileSync } from 'node:fs';
+import { resolve } from 'node:path';
+import { dataPaths, secureDataDir, securePrivateFile } from './files';
 
 export interface ServerConfig {
   dbFile: string;
@@ -24,8 +25,11 @@ function authSecret(dataDir: string): string {
   if (fromEnv !== undefined && fromEnv.length < 32) throw new Error('AUTH_SECRET must be at least 32 characters');
   if (fromEnv) return fromEnv;
   const file = resolve(dataDir, 'auth-secret');
-  if (existsSync(file)) return readFileSync(file, 'utf8').trim();
-  mkdirSync(dataDir, { recursive: true });
+  secureDataDir(dataDir);
+  if (existsSync(file)) {
+    securePrivateFile(file); // one left readable by a hand edit or a copy: anyone who reads it can sign sessions
+    return readFileSync(file, 'utf8').trim();
+  }
   const secret = randomBytes(32).toString('hex');
   writeFileSync(file, secret + '\n', { mode: 0o600 });
   return secret;
@@ -33,8 +37,7 @@ function authSecret(dataDir: string): string {
 
 export function config(): ServerConfig {
   if (cached) return cached;
-  const dbFile = resolve(process.env.DB_FILE ?? 'data/coneline.sqlite');
-  const dataDir = process.env.DATA_DIR ? resolve(process.env.DATA_DIR) : dirname(dbFile);
+  const { dbFile, dataDir } = dataPaths();
   const port = process.env.PORT ?? '4321';
   cached = {
     dbFile,

@@ -1,8 +1,8 @@
 /** The server's one Knex instance, with the migrations bundled into the build. */
 import knexFactory, { type Knex } from 'knex';
-import { mkdirSync } from 'node:fs';
-import { dirname } from 'node:path';
 import { config } from './config';
+import { holdDatabaseLock } from './data-lock';
+import { secureDataDir, secureDbFile } from './files';
 import { sqliteOptions } from './knex-options';
 
 type MigrationModule = Knex.Migration;
@@ -31,8 +31,10 @@ let ready: Promise<Knex> | null = null;
 /** The database, migrated to the latest schema on first use. */
 export function db(): Promise<Knex> {
   if (!ready) {
-    const file = config().dbFile;
-    mkdirSync(dirname(file), { recursive: true });
+    const { dbFile: file, dataDir } = config();
+    secureDataDir(dataDir);
+    holdDatabaseLock(dataDir); // db:restore refuses while a server holds it
+    secureDbFile(file);
     instance = knexFactory(sqliteOptions(file));
     const k = instance;
     ready = k.migrate.latest({ migrationSource: bundledMigrations }).then(() => k);

@@ -3,6 +3,9 @@ import { hash, verify } from '@node-rs/argon2';
 import type { Knex } from 'knex';
 import { z } from 'zod';
 import { audit } from './audit';
+import { passwordProblem } from './password-policy';
+
+export { MAX_PASSWORD_LENGTH, MIN_PASSWORD_LENGTH } from './password-policy';
 
 export const ROLES = ['student', 'attending', 'director'] as const;
 export type UserRole = (typeof ROLES)[number];
@@ -18,16 +21,14 @@ export interface UserRow {
   cohort_id: number | null;
 }
 
-export const MIN_PASSWORD_LENGTH = 12;
-
 export const newUserSchema = z.object({
   email: z.string().trim().toLowerCase().email('email must be an e-mail address'),
   name: z.string().trim().min(1, 'name is required').max(120, 'name must be at most 120 characters'),
   role: z.enum(ROLES, { errorMap: () => ({ message: 'role must be student, attending or director' }) }),
-  password: z
-    .string()
-    .min(MIN_PASSWORD_LENGTH, `password must be at least ${MIN_PASSWORD_LENGTH} characters`)
-    .max(200, 'password must be at most 200 characters'),
+  password: z.string().superRefine((password, ctx) => {
+    const problem = passwordProblem(password);
+    if (problem) ctx.addIssue({ code: z.ZodIssueCode.custom, message: problem });
+  }),
   cohortId: z.number().int().positive().nullable().optional(),
 });
 export type NewUser = z.infer<typeof newUserSchema>;
