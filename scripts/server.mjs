@@ -9,8 +9,8 @@
  * Plain JavaScript on purpose: a real install runs it with `node`, no TypeScript loader.
  */
 import { readFileSync } from 'node:fs';
-import { createServer as createHttp } from 'node:http';
-import { createServer as createHttps } from 'node:https';
+import { createServer as createHttp, get as httpGet } from 'node:http';
+import { createServer as createHttps, get as httpsGet } from 'node:https';
 import { isIP } from 'node:net';
 import { resolve } from 'node:path';
 import { pathToFileURL } from 'node:url';
@@ -103,8 +103,24 @@ server.keepAliveTimeout = 5_000;
 
 const host = env.HOST ?? '127.0.0.1';
 const port = Number(env.PORT ?? 4321);
-server.listen(port, host, () => {
-  console.log(`Coneline is listening on ${tls ? 'https' : 'http'}://${host.includes(':') ? `[${host}]` : host}:${port}`);
+
+/** Asks our own /api/health, which opens and migrates the database and takes the data folder. */
+function selfCheck(listeningPort) {
+  const target = host === '0.0.0.0' || host === '::' ? '127.0.0.1' : host;
+  const get = tls ? httpsGet : httpGet;
+  return new Promise((resolveStatus) => {
+    get({ host: target, port: listeningPort, path: '/api/health', rejectUnauthorized: false, headers: { host: 'localhost' } }, (res) => {
+      res.resume();
+      resolveStatus(res.statusCode ?? 0);
+    }).on('error', () => resolveStatus(0));
+  });
+}
+
+server.listen(port, host, async () => {
+  const listeningPort = server.address().port;
+  const status = await selfCheck(listeningPort);
+  if (status !== 200) refuse('the database could not be opened (see the line above); nothing was served.');
+  console.log(`Coneline is listening on ${tls ? 'https' : 'http'}://${host.includes(':') ? `[${host}]` : host}:${listeningPort}`);
 });
 server.on('error', (err) => refuse(`${err.code === 'EADDRINUSE' ? `port ${port} is in use` : err.message}.`));
 

@@ -67,6 +67,7 @@ const MATRIX: Record<string, Row[]> = {
   '/api/canals/[canalId]': [{ method: 'GET', path: (i) => `/api/canals/${i.canalId}`, expect: readers(401), variants: true }],
   '/api/cases': [{ method: 'GET', path: () => '/api/cases', expect: signedIn(200, 401) }],
   '/api/cases/[caseId]': [{ method: 'GET', path: (i) => `/api/cases/${i.caseId}`, expect: readers(401), variants: true }],
+  '/api/health': [{ method: 'GET', path: () => '/api/health', expect: signedIn(200, 200) }],
   '/api/me': [{ method: 'GET', path: () => '/api/me', expect: signedIn(200, 401) }],
   // A body that cannot pass validation: the matrix must change nothing.
   '/api/me/password': [{ method: 'POST', path: () => '/api/me/password', body: { id: 'x' }, expect: signedIn(400, 401) }],

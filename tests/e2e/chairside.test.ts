@@ -214,7 +214,7 @@ describe('the chairside island, offline first', () => {
     await page.getByTestId('unsent-warning').waitFor();
     await page.getByRole('button', { name: 'Sign out anyway' }).click();
     await page.waitForURL((u) => u.pathname === '/signout');
-    await page.getByRole('button', { name: 'Sign out' }).click();
+    await page.getByRole('button', { name: 'Sign out of this device' }).click();
     await page.waitForURL((u) => u.pathname === '/signin');
     await page.unroute('**/api/sync');
 
@@ -238,7 +238,7 @@ describe('the chairside island, offline first', () => {
     // Tomas signs out with everything synced; Mira signs in again and her events go out.
     await page.getByRole('button', { name: /Sign out/ }).click();
     await page.waitForURL((u) => u.pathname === '/signout');
-    await page.getByRole('button', { name: 'Sign out' }).click();
+    await page.getByRole('button', { name: 'Sign out of this device' }).click();
     await page.waitForURL((u) => u.pathname === '/signin');
     await openChairside(page, DEMO.mira, 'step');
     await page.locator('[data-testid="sync-state"][data-state="synced"]').waitFor({ timeout: 30_000 });

@@ -86,7 +86,7 @@ describe('signing in in Chromium', () => {
     const page = await context.newPage();
     await signIn(page, server.baseUrl, DEMO.tomas, DEMO.password);
     await page.getByRole('link', { name: 'Sign out' }).click();
-    await Promise.all([page.waitForURL((u) => u.pathname === '/signin'), page.getByRole('button', { name: 'Sign out' }).click()]);
+    await Promise.all([page.waitForURL((u) => u.pathname === '/signin'), page.getByRole('button', { name: 'Sign out of this device' }).click()]);
     await expect(page.getByRole('status').textContent()).resolves.toContain('You are signed out');
     await page.goto(`${server.baseUrl}/`);
     expect(new URL(page.url()).pathname).toBe('/signin');

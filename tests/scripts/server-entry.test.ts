@@ -95,6 +95,15 @@ describe('starting', () => {
     expect(run.code).toBe(1);
     expect(run.output).toContain('AUTH_SECRET must be at least 32 characters');
   });
+
+  it('refuses to serve a data folder another server holds, before anyone is served', async () => {
+    // Wait until the running server has opened its database (and so holds the folder).
+    expect((await fetch(`${server.baseUrl}/api/health`)).status).toBe(200);
+    const run = await startEntry({ AUTH_SECRET: 'x'.repeat(40), DB_FILE: server.dbFile, DATA_DIR: server.dir });
+    expect(run.code).toBe(1);
+    expect(run.output).toContain('the database could not be opened');
+    expect(run.output).not.toContain('Coneline is listening');
+  });
 });
 
 function httpsHeaders(port: number, host: string, ca: string): Promise<Record<string, string | string[] | undefined>> {

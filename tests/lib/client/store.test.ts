@@ -14,7 +14,7 @@ beforeEach(async () => {
   await closeDb();
   globalThis.indexedDB = new IDBFactory();
   vi.stubGlobal('navigator', { onLine: false });
-  useChairside.setState({ identity: { user: { id: USER, name: 'Ana', role: 'student' }, source: 'tablet', signedOut: false }, rows: [], caseId: null, error: null });
+  useChairside.setState({ identity: { user: { id: USER, name: 'Ana', role: 'student' }, source: 'tablet', signedOut: false, demo: false }, rows: [], caseId: null, error: null });
 });
 
 /** Opens a case on the tablet and sets up `count` canals, as the island's cards do. */
