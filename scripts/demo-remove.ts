@@ -25,7 +25,9 @@ const LABELS: [keyof DemoRemoval, string, string][] = [
 
 /** "6 accounts, 1 cohort, …", leaving out what there was none of. */
 function describeRemoval(r: DemoRemoval): string {
-  return LABELS.filter(([key]) => r[key] > 0).map(([key, one, many]) => `${r[key]} ${r[key] === 1 ? one : many}`).join(', ');
+  return LABELS.filter(([key]) => r[key] > 0)
+    .map(([key, one, many]) => `${r[key]} ${r[key] === 1 ? one : many}`)
+    .join(', ');
 }
 
 const file = resolve(process.env.DB_FILE ?? 'data/coneline.sqlite');
@@ -42,7 +44,10 @@ try {
     console.log(`demo:remove: no demo clinic in ${file}; nothing removed.`);
   } else {
     console.log(`demo:remove: removed the demo clinic from ${file}: ${describeRemoval(removed)}.`);
-    if (removed.auditLinesKept > 0) console.log(`Kept ${removed.auditLinesKept} audit line${removed.auditLinesKept === 1 ? '' : 's'} that named a demo account as actor, now with no actor.`);
+    if (removed.auditLinesKept > 0)
+      console.log(
+        `Kept ${removed.auditLinesKept} audit line${removed.auditLinesKept === 1 ? '' : 's'} that named a demo account as actor, now with no actor.`,
+      );
   }
 } catch (err) {
   const reason = err instanceof DemoRemovalBlocked ? `${err.message}. Nothing was removed.` : (err as Error).message;

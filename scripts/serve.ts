@@ -28,7 +28,9 @@ if (problems.length > 0) {
   process.exit(1);
 }
 if (facts.activeAccounts === 0) {
-  console.log('No account can sign in yet: make the first director with\n  npm run user:add -- --email E --name N --role director --password P');
+  console.log(
+    'No account can sign in yet: make the first director with\n  npm run user:add -- --email E --name N --role director --password P',
+  );
 }
 
 if (values['no-build']) requireBuild(root);

@@ -14,7 +14,13 @@ import { createServer as createHttps, get as httpsGet } from 'node:https';
 import { isIP } from 'node:net';
 import { resolve } from 'node:path';
 import { pathToFileURL } from 'node:url';
-import { ROUTE_TIMEOUTS, cameOverHttps, decideClientAddress, routeTimeoutMs, securityHeaders } from './lib/http-policy.mjs';
+import {
+  ROUTE_TIMEOUTS,
+  cameOverHttps,
+  decideClientAddress,
+  routeTimeoutMs,
+  securityHeaders,
+} from './lib/http-policy.mjs';
 
 const root = resolve(import.meta.dirname, '..');
 const env = process.env;
@@ -65,7 +71,9 @@ function listener(req, res) {
   const timer = setTimeout(() => {
     if (res.writableEnded) return;
     if (!res.headersSent) {
-      const body = JSON.stringify({ error: 'The request took too long and was stopped; nothing more will be read. Try again.' });
+      const body = JSON.stringify({
+        error: 'The request took too long and was stopped; nothing more will be read. Try again.',
+      });
       res.writeHead(408, { 'Content-Type': 'application/json', Connection: 'close', 'Cache-Control': 'no-store' });
       res.end(body, () => req.socket.destroy());
     } else {
@@ -91,9 +99,10 @@ function hostOf(req) {
   return host.startsWith('[') ? host.slice(0, host.indexOf(']') + 1) : host.split(':')[0];
 }
 
-const tls = env.SERVER_CERT_PATH && env.SERVER_KEY_PATH
-  ? { cert: readFileSync(env.SERVER_CERT_PATH), key: readFileSync(env.SERVER_KEY_PATH) }
-  : null;
+const tls =
+  env.SERVER_CERT_PATH && env.SERVER_KEY_PATH
+    ? { cert: readFileSync(env.SERVER_CERT_PATH), key: readFileSync(env.SERVER_KEY_PATH) }
+    : null;
 const server = tls ? createHttps(tls, listener) : createHttp(listener);
 // Node's own limits back ours up: headers must arrive within 20 s, a whole request within
 // the longest route limit (a body shorter than its Content-Length is answered then, not never).
@@ -109,10 +118,19 @@ function selfCheck(listeningPort) {
   const target = host === '0.0.0.0' || host === '::' ? '127.0.0.1' : host;
   const get = tls ? httpsGet : httpGet;
   return new Promise((resolveStatus) => {
-    get({ host: target, port: listeningPort, path: '/api/health', rejectUnauthorized: false, headers: { host: 'localhost' } }, (res) => {
-      res.resume();
-      resolveStatus(res.statusCode ?? 0);
-    }).on('error', () => resolveStatus(0));
+    get(
+      {
+        host: target,
+        port: listeningPort,
+        path: '/api/health',
+        rejectUnauthorized: false,
+        headers: { host: 'localhost' },
+      },
+      (res) => {
+        res.resume();
+        resolveStatus(res.statusCode ?? 0);
+      },
+    ).on('error', () => resolveStatus(0));
   });
 }
 
@@ -120,7 +138,9 @@ server.listen(port, host, async () => {
   const listeningPort = server.address().port;
   const status = await selfCheck(listeningPort);
   if (status !== 200) refuse('the database could not be opened (see the line above); nothing was served.');
-  console.log(`Coneline is listening on ${tls ? 'https' : 'http'}://${host.includes(':') ? `[${host}]` : host}:${listeningPort}`);
+  console.log(
+    `Coneline is listening on ${tls ? 'https' : 'http'}://${host.includes(':') ? `[${host}]` : host}:${listeningPort}`,
+  );
 });
 server.on('error', (err) => refuse(`${err.code === 'EADDRINUSE' ? `port ${port} is in use` : err.message}.`));
 

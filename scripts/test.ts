@@ -21,10 +21,12 @@ if (!existsSync(CHROMIUM)) {
   const isRoot = process.getuid?.() === 0;
   const hasApt = spawnSync('sh', ['-c', 'command -v apt-get'], { stdio: 'ignore' }).status === 0;
   if (!isRoot || !hasApt) {
-    console.error('Chromium is missing: install Debian\'s package first (sudo apt-get install -y chromium), then run npm test again.');
+    console.error(
+      "Chromium is missing: install Debian's package first (sudo apt-get install -y chromium), then run npm test again.",
+    );
     process.exit(1);
   }
-  console.log('Installing Debian\'s chromium for the browser tests…');
+  console.log("Installing Debian's chromium for the browser tests…");
   run('apt-get', ['update', '-qq']);
   run('apt-get', ['install', '-y', '-qq', 'chromium'], { ...process.env, DEBIAN_FRONTEND: 'noninteractive' });
 }
@@ -34,7 +36,12 @@ mkdirSync(resolve(root, 'test-results'), { recursive: true });
 rmSync(resolve(root, 'test-results/vitest.json'), { force: true });
 const bin = (p: string) => resolve(root, 'node_modules', p);
 const only = process.argv.slice(2);
-if (only.length === 0) run(node, [bin('astro/astro.js'), 'check']);
+if (only.length === 0) {
+  // Format and lint first: they are the quickest to fail.
+  run(node, [bin('prettier/bin/prettier.cjs'), '--check', '--log-level=warn', '.']);
+  run(node, [bin('eslint/bin/eslint.js'), '.']);
+  run(node, [bin('astro/astro.js'), 'check']);
+}
 run(node, [bin('astro/astro.js'), 'build']);
 const report = resolve(root, 'test-results/vitest.json');
 const vitest = spawnSync(
@@ -44,7 +51,14 @@ const vitest = spawnSync(
 );
 // One plain closing line that any CI can read, from vitest's own JSON report.
 if (existsSync(report)) {
-  const r = JSON.parse(readFileSync(report, 'utf8')) as { numPassedTests: number; numFailedTests: number; numPendingTests: number; numTodoTests: number };
-  console.log(`\n${r.numPassedTests} passed, ${r.numFailedTests} failed, ${r.numPendingTests + r.numTodoTests} skipped`);
+  const r = JSON.parse(readFileSync(report, 'utf8')) as {
+    numPassedTests: number;
+    numFailedTests: number;
+    numPendingTests: number;
+    numTodoTests: number;
+  };
+  console.log(
+    `\n${r.numPassedTests} passed, ${r.numFailedTests} failed, ${r.numPendingTests + r.numTodoTests} skipped`,
+  );
 }
 process.exit(vitest.status ?? 1);

@@ -24,8 +24,13 @@ function options() {
   try {
     return parseArgs({
       options: {
-        email: { type: 'string' }, name: { type: 'string' }, role: { type: 'string' }, password: { type: 'string' },
-        'password-stdin': { type: 'boolean' }, attending: { type: 'string' }, cohort: { type: 'string' },
+        email: { type: 'string' },
+        name: { type: 'string' },
+        role: { type: 'string' },
+        password: { type: 'string' },
+        'password-stdin': { type: 'boolean' },
+        attending: { type: 'string' },
+        cohort: { type: 'string' },
       },
       strict: true,
     }).values;
@@ -51,7 +56,8 @@ async function password(): Promise<string> {
     const problem = passwordProblem(given);
     return problem ? fail(problem) : given;
   }
-  if (!process.stdin.isTTY) fail('no password: run it in a terminal to be asked, or give one line on standard input with --password-stdin');
+  if (!process.stdin.isTTY)
+    fail('no password: run it in a terminal to be asked, or give one line on standard input with --password-stdin');
   const first = await askHidden('Password: ');
   const problem = passwordProblem(first);
   if (problem) fail(problem);
@@ -66,13 +72,20 @@ try {
   let cohortId: number | null = null;
   if (values.cohort) {
     const found = await k('cohorts').where({ name: values.cohort.trim() }).first();
-    cohortId = found ? (found.id as number) : ((await k('cohorts').insert({ name: values.cohort.trim() }).returning('id'))[0] as { id: number }).id;
+    cohortId = found
+      ? (found.id as number)
+      : ((await k('cohorts').insert({ name: values.cohort.trim() }).returning('id'))[0] as { id: number }).id;
   }
   const attending = values.attending ? await findUserByEmail(k, values.attending) : undefined;
-  if (values.attending && (!attending || attending.role !== 'attending')) fail(`--attending ${values.attending} is not an attending's account`);
+  if (values.attending && (!attending || attending.role !== 'attending'))
+    fail(`--attending ${values.attending} is not an attending's account`);
   if (values.attending && values.role !== 'student') fail('--attending goes with --role student');
   const user = await createUser(k, {
-    email: values.email!, name: values.name!, role: values.role as NewUser['role'], password: secret, cohortId,
+    email: values.email!,
+    name: values.name!,
+    role: values.role as NewUser['role'],
+    password: secret,
+    cohortId,
   });
   if (attending) await k('assignments').insert({ attending_id: attending.id, student_id: user.id });
   console.log(`Created ${user.role} ${user.email}${attending ? `, assigned to ${attending.email}` : ''}.`);

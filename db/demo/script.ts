@@ -21,7 +21,11 @@ export class CaseScript {
   private clock: number;
   private n = 0;
 
-  constructor(private readonly key: string, start: string, opened: Record<string, unknown>) {
+  constructor(
+    private readonly key: string,
+    start: string,
+    opened: Record<string, unknown>,
+  ) {
     this.caseId = uuidv5(`${key}/case`, NAMESPACE);
     this.clock = Date.parse(start);
     this.add(undefined, 'case.opened', opened);
@@ -35,12 +39,30 @@ export class CaseScript {
   add(canal: string | undefined, type: string, data: Record<string, unknown> = {}, gapSeconds = 40): string {
     this.clock += gapSeconds * 1000;
     const id = uuidv5(`${this.key}/event/${this.n++}`, NAMESPACE);
-    this.events.push({ id, caseId: this.caseId, ...(canal ? { canalId: this.canalId(canal) } : {}), type, at: new Date(this.clock).toISOString(), data });
+    this.events.push({
+      id,
+      caseId: this.caseId,
+      ...(canal ? { canalId: this.canalId(canal) } : {}),
+      type,
+      at: new Date(this.clock).toISOString(),
+      data,
+    });
     return id;
   }
 
   /** Everything from seat check to chamber clean-up, with `depths` as the spreader cycles. */
-  fullCanal(canal: string, o: { cwl: number; maf: string; spreader: string; cone: string; depths: number[]; tooth: boolean; sear?: Record<string, unknown> }): void {
+  fullCanal(
+    canal: string,
+    o: {
+      cwl: number;
+      maf: string;
+      spreader: string;
+      cone: string;
+      depths: number[];
+      tooth: boolean;
+      sear?: Record<string, unknown>;
+    },
+  ): void {
     this.add(canal, 'seat.checked', { fileSize: o.maf, lengthMm: o.cwl, result: 'seated' });
     this.add(canal, 'taper.checked', { spreader: o.spreader, depthMm: o.cwl - 0.5 });
     if (o.tooth) this.add(canal, 'radiograph.taken', { purpose: 'maf' });

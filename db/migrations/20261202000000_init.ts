@@ -171,8 +171,20 @@ export async function up(knex: Knex): Promise<void> {
 
 export async function down(knex: Knex): Promise<void> {
   for (const table of [
-    'audit_log', 'settings', 'password_resets', 'invitations', 'comments', 'signoffs',
-    'radiographs', 'findings', 'events', 'canals', 'cases', 'assignments', 'users', 'cohorts',
+    'audit_log',
+    'settings',
+    'password_resets',
+    'invitations',
+    'comments',
+    'signoffs',
+    'radiographs',
+    'findings',
+    'events',
+    'canals',
+    'cases',
+    'assignments',
+    'users',
+    'cohorts',
   ]) {
     await knex.schema.dropTableIfExists(table);
   }

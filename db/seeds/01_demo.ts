@@ -10,20 +10,41 @@ import { hashPassword } from '../../src/lib/server/users';
 import { ingestBatch } from '../../src/lib/server/sync';
 
 const TABLES = [
-  'audit_log', 'settings', 'password_resets', 'invitations', 'comments', 'signoffs',
-  'radiographs', 'findings', 'events', 'canals', 'cases', 'assignments', 'users', 'cohorts',
+  'audit_log',
+  'settings',
+  'password_resets',
+  'invitations',
+  'comments',
+  'signoffs',
+  'radiographs',
+  'findings',
+  'events',
+  'canals',
+  'cases',
+  'assignments',
+  'users',
+  'cohorts',
 ];
 
 export async function seed(knex: Knex): Promise<void> {
   for (const t of TABLES) await knex(t).del();
 
-  const [cohort] = await knex('cohorts').insert({ ...COHORT, demo: true }).returning('id');
+  const [cohort] = await knex('cohorts')
+    .insert({ ...COHORT, demo: true })
+    .returning('id');
   const cohortId = typeof cohort === 'object' ? (cohort as { id: number }).id : (cohort as number);
   const password_hash = await hashPassword(DEMO_PASSWORD);
   const ids = new Map<string, number>();
   for (const p of PEOPLE) {
     const [row] = await knex('users')
-      .insert({ email: p.email, name: p.name, role: p.role, password_hash, demo: true, cohort_id: p.role === 'student' ? cohortId : null })
+      .insert({
+        email: p.email,
+        name: p.name,
+        role: p.role,
+        password_hash,
+        demo: true,
+        cohort_id: p.role === 'student' ? cohortId : null,
+      })
       .returning('id');
     ids.set(p.key, typeof row === 'object' ? (row as { id: number }).id : (row as number));
   }
@@ -33,17 +54,25 @@ export async function seed(knex: Knex): Promise<void> {
     const studentId = ids.get(c.student)!;
     const answer = await ingestBatch(knex, studentId, 'demo-seed', c.script.events, new Date('2026-12-01T00:00:00Z'));
     const rejected = answer.results.filter((r) => r.status === 'rejected');
-    if (rejected.length > 0) throw new Error(`demo case ${c.script.caseId} has rejected events: ${JSON.stringify(rejected)}`);
+    if (rejected.length > 0)
+      throw new Error(`demo case ${c.script.caseId} has rejected events: ${JSON.stringify(rejected)}`);
     if (c.review) {
       const at = new Date(Date.parse(c.script.events.at(-1)!.at) + 86_400_000).toISOString();
       await knex('signoffs').insert({
-        case_id: c.script.caseId, checkpoint: 'final', decision: c.review.decision,
+        case_id: c.script.caseId,
+        checkpoint: 'final',
+        decision: c.review.decision,
         rubric_json: JSON.stringify({ length: c.review.decision === 'approved' ? 'meets' : 'below', density: 'meets' }),
-        comment: c.review.comment, attending_id: ids.get(c.review.by), created_at: at,
+        comment: c.review.comment,
+        attending_id: ids.get(c.review.by),
+        created_at: at,
       });
-      await knex('cases').where({ id: c.script.caseId }).update({
-        review_status: c.review.decision, signed_off_at: c.review.decision === 'approved' ? at : null,
-      });
+      await knex('cases')
+        .where({ id: c.script.caseId })
+        .update({
+          review_status: c.review.decision,
+          signed_off_at: c.review.decision === 'approved' ? at : null,
+        });
     }
   }
 }

@@ -16,29 +16,55 @@ import { startServer } from '../lib/server-process.ts';
 import { DEMO } from '../lib/api-client.ts';
 
 const TAPS = 200;
-const ARGS = ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run'];
+const ARGS = [
+  '--headless',
+  '--no-sandbox',
+  '--disable-gpu',
+  '--disable-quic',
+  '--disable-background-networking',
+  '--disable-component-update',
+  '--disable-sync',
+  '--no-first-run',
+];
 
 /** Click in the page and resolve with the ms until the undo strip's save counter moves. */
 function timedTap(page: Page, selector: string): Promise<number> {
-  return page.evaluate((sel) => new Promise<number>((resolve, reject) => {
-    const strip = document.querySelector<HTMLElement>('[data-testid="undo-strip"]');
-    const target = document.querySelector<HTMLElement>(sel);
-    if (!strip || !target) { reject(new Error(`missing ${sel}`)); return; }
-    const before = strip.dataset.saved;
-    const obs = new MutationObserver(() => {
-      if (strip.dataset.saved !== before) { obs.disconnect(); resolve(performance.now() - t0); }
-    });
-    obs.observe(strip, { attributes: true, attributeFilter: ['data-saved'] });
-    const t0 = performance.now();
-    target.click();
-  }), selector);
+  return page.evaluate(
+    (sel) =>
+      new Promise<number>((resolve, reject) => {
+        const strip = document.querySelector<HTMLElement>('[data-testid="undo-strip"]');
+        const target = document.querySelector<HTMLElement>(sel);
+        if (!strip || !target) {
+          reject(new Error(`missing ${sel}`));
+          return;
+        }
+        const before = strip.dataset.saved;
+        const obs = new MutationObserver(() => {
+          if (strip.dataset.saved !== before) {
+            obs.disconnect();
+            resolve(performance.now() - t0);
+          }
+        });
+        obs.observe(strip, { attributes: true, attributeFilter: ['data-saved'] });
+        const t0 = performance.now();
+        target.click();
+      }),
+    selector,
+  );
 }
 
 const card = (page: Page, kind: string) => page.locator(`[data-testid="step"][data-card="${kind}"]`).waitFor();
-const answer = async (page: Page, kind: string, name: string) => { await card(page, kind); await page.getByTestId('step').getByRole('button', { name, exact: true }).click(); };
+const answer = async (page: Page, kind: string, name: string) => {
+  await card(page, kind);
+  await page.getByTestId('step').getByRole('button', { name, exact: true }).click();
+};
 const ruler = async (page: Page, kind: string, testId = 'ruler') => {
   await card(page, kind);
-  await page.getByTestId('step').getByTestId(testId).getByRole('button', { name: /expected/ }).click();
+  await page
+    .getByTestId('step')
+    .getByTestId(testId)
+    .getByRole('button', { name: /expected/ })
+    .click();
 };
 
 /** The workbox runtime file(s) sw.js imports. */
@@ -55,20 +81,31 @@ const dir = mkdtempSync(join(tmpdir(), 'coneline-bench-'));
 const template = join(dir, 'template.sqlite');
 await prepareDb(template, { seed: true });
 const server = await startServer({ templateDb: template });
-const browser = await chromium.launch({ executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium', args: ARGS, headless: true });
+const browser = await chromium.launch({
+  executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
+  args: ARGS,
+  headless: true,
+});
 try {
   const context = await browser.newContext({ viewport: { width: 1280, height: 800 } });
   const page = await context.newPage();
   await page.goto(`${server.baseUrl}/signin?callbackUrl=%2Fchairside`);
   await page.getByLabel('E-mail').fill(DEMO.priya);
   await page.getByLabel('Password').fill(DEMO.password);
-  await Promise.all([page.waitForURL((u) => u.pathname === '/chairside'), page.getByRole('button', { name: 'Sign in' }).click()]);
+  await Promise.all([
+    page.waitForURL((u) => u.pathname === '/chairside'),
+    page.getByRole('button', { name: 'Sign in' }).click(),
+  ]);
 
   // Every script the chairside page loads, from a fresh load.
   const scripts = new Map<string, number>();
   page.on('response', async (res) => {
     if (res.request().resourceType() !== 'script' || !res.ok()) return;
-    try { scripts.set(res.url(), gzipSync(await res.body()).length); } catch { /* body gone */ }
+    try {
+      scripts.set(res.url(), gzipSync(await res.body()).length);
+    } catch {
+      /* body gone */
+    }
   });
   await page.reload({ waitUntil: 'networkidle' });
   await page.getByTestId('new-case').click();
@@ -76,7 +113,10 @@ try {
   // A training block, one canal, up to the seated master cone.
   await page.getByRole('button', { name: 'Training block' }).click();
   await page.getByTestId('canals-confirm').click();
-  await page.getByTestId('ruler-cwl').getByRole('button', { name: /expected/ }).click();
+  await page
+    .getByTestId('ruler-cwl')
+    .getByRole('button', { name: /expected/ })
+    .click();
   await page.getByTestId('maf-30').click();
   await page.getByTestId('save-canal').click();
   await answer(page, 'seat', 'Seats and holds');
@@ -97,9 +137,16 @@ try {
   }
   const sorted = [...times].sort((a, b) => a - b);
   const kb = [...scripts.values()].reduce((a, b) => a + b, 0) / 1024;
-  const worker = await Promise.all(['/sw.js', ...(await swImports(page))].map(async (p) => gzipSync(Buffer.from(await (await fetch(server.baseUrl + p)).arrayBuffer())).length));
-  for (const [url, size] of scripts) console.log(`script ${new URL(url).pathname}: ${(size / 1024).toFixed(1)} KB gzip`);
-  console.log(`service worker (its own context, not counted below): ${(worker.reduce((a, b) => a + b, 0) / 1024).toFixed(1)} KB gzip`);
+  const worker = await Promise.all(
+    ['/sw.js', ...(await swImports(page))].map(
+      async (p) => gzipSync(Buffer.from(await (await fetch(server.baseUrl + p)).arrayBuffer())).length,
+    ),
+  );
+  for (const [url, size] of scripts)
+    console.log(`script ${new URL(url).pathname}: ${(size / 1024).toFixed(1)} KB gzip`);
+  console.log(
+    `service worker (its own context, not counted below): ${(worker.reduce((a, b) => a + b, 0) / 1024).toFixed(1)} KB gzip`,
+  );
   console.log(`chairside.tap_to_saved_ms.p50: ${percentile(sorted, 50).toFixed(1)}`);
   console.log(`chairside.tap_to_saved_ms.p95: ${percentile(sorted, 95).toFixed(1)}`);
   console.log(`chairside.js_gzip_kb: ${kb.toFixed(1)}`);

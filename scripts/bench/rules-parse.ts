@@ -17,7 +17,20 @@ const uuid = (n: number) => `00000000-0000-4000-8000-${n.toString(16).padStart(1
 function canal(): { type: string; data?: Record<string, unknown>; caseLevel?: boolean }[] {
   const out: { type: string; data?: Record<string, unknown>; caseLevel?: boolean }[] = [
     { type: 'case.opened', data: { setting: 'patient', tooth: 46, chartRef: ' DEMO-7 ' }, caseLevel: true },
-    { type: 'canal.added', data: { name: 'D', referencePoint: 'distobuccal cusp tip', cwlMm: 21, mafSize: 35, preparation: '0.04', orificeDepthMm: 4, spreader: 'MF', accessorySize: 'MF', sealer: 'zoe' } },
+    {
+      type: 'canal.added',
+      data: {
+        name: 'D',
+        referencePoint: 'distobuccal cusp tip',
+        cwlMm: 21,
+        mafSize: 35,
+        preparation: '0.04',
+        orificeDepthMm: 4,
+        spreader: 'MF',
+        accessorySize: 'MF',
+        sealer: 'zoe',
+      },
+    },
     { type: 'canal.cwlCorrected', data: { cwlMm: 21.5, reason: 'apex locator' } },
     { type: 'radiograph.taken', data: { purpose: 'working-length', radiographId: 'r-1' } },
     { type: 'seat.checked', data: { fileSize: '35', lengthMm: 21.5, result: 'seated' } },
@@ -49,8 +62,12 @@ const steps = canal();
 const events = Array.from({ length: EVENTS }, (_, i) => {
   const s = steps[i % steps.length]!;
   return {
-    id: uuid(1000 + i), caseId: uuid(7).toUpperCase(), ...(s.caseLevel ? {} : { canalId: uuid(8) }),
-    type: s.type, at: new Date(BASE_MS + i * 1000).toISOString(), data: s.data,
+    id: uuid(1000 + i),
+    caseId: uuid(7).toUpperCase(),
+    ...(s.caseLevel ? {} : { canalId: uuid(8) }),
+    type: s.type,
+    at: new Date(BASE_MS + i * 1000).toISOString(),
+    data: s.data,
   };
 });
 

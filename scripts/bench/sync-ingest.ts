@@ -17,7 +17,14 @@ const CANALS = 100;
 const PER_CANAL = 100;
 const BATCH = 500;
 
-interface Ev { id: string; caseId: string; canalId?: string; type: string; at: string; data: Record<string, unknown> }
+interface Ev {
+  id: string;
+  caseId: string;
+  canalId?: string;
+  type: string;
+  at: string;
+  data: Record<string, unknown>;
+}
 
 /** One canal on an extracted tooth, 100 events: set-up, checks, 46 compaction cycles, finish. */
 function canalEvents(start: number): Ev[] {
@@ -26,9 +33,24 @@ function canalEvents(start: number): Ev[] {
   let t = start;
   const out: Ev[] = [];
   const add = (type: string, data: Record<string, unknown> = {}, canal = true) =>
-    out.push({ id: randomUUID(), caseId, ...(canal ? { canalId } : {}), type, at: new Date((t += 1000)).toISOString(), data });
+    out.push({
+      id: randomUUID(),
+      caseId,
+      ...(canal ? { canalId } : {}),
+      type,
+      at: new Date((t += 1000)).toISOString(),
+      data,
+    });
   add('case.opened', { setting: 'extracted', tooth: 46 }, false);
-  add('canal.added', { name: 'D', referencePoint: 'distobuccal cusp tip', cwlMm: 26, mafSize: '35', preparation: 'step-back', spreader: 'MF', accessorySize: 'MF' });
+  add('canal.added', {
+    name: 'D',
+    referencePoint: 'distobuccal cusp tip',
+    cwlMm: 26,
+    mafSize: '35',
+    preparation: 'step-back',
+    spreader: 'MF',
+    accessorySize: 'MF',
+  });
   add('seat.checked', { fileSize: '35', lengthMm: 26, result: 'seated' });
   add('taper.checked', { spreader: 'MF', depthMm: 25 });
   add('canal.rinsed', { solutions: ['naocl', 'edta'] });
@@ -57,7 +79,8 @@ try {
   const api = await apiSignIn(server.baseUrl, DEMO.mira, DEMO.password);
   const base = Date.now() - 7 * 86_400_000;
   const events = Array.from({ length: CANALS }, (_, i) => canalEvents(base + i * 200_000)).flat();
-  if (events.length !== CANALS * PER_CANAL) throw new Error(`expected ${CANALS * PER_CANAL} events, made ${events.length}`);
+  if (events.length !== CANALS * PER_CANAL)
+    throw new Error(`expected ${CANALS * PER_CANAL} events, made ${events.length}`);
 
   // Warm-up on other ids, so the first timed batch does not pay for the JIT alone.
   await api.post('/api/sync', { deviceId: 'bench', events: canalEvents(base - 86_400_000) });
@@ -79,8 +102,12 @@ try {
   raw.pragma('synchronous = FULL');
   raw.pragma('foreign_keys = ON');
   raw.prepare("insert into users (email, name, role) values ('bench@example.org', 'Bench', 'student')").run();
-  const insCase = raw.prepare("insert into cases (id, student_id, setting, tooth, opened_at) values (?, 1, 'extracted', 46, ?)");
-  const insCanal = raw.prepare("insert into canals (id, case_id, name, status, state_json) values (?, ?, 'D', 'set-up', '{}')");
+  const insCase = raw.prepare(
+    "insert into cases (id, student_id, setting, tooth, opened_at) values (?, 1, 'extracted', 46, ?)",
+  );
+  const insCanal = raw.prepare(
+    "insert into canals (id, case_id, name, status, state_json) values (?, ?, 'D', 'set-up', '{}')",
+  );
   for (const e of events) {
     if (e.type === 'case.opened') insCase.run(e.caseId, e.at);
     if (e.type === 'canal.added') insCanal.run(e.canalId, e.caseId);
@@ -90,7 +117,18 @@ try {
   );
   const insertBatch = raw.transaction((rows: Ev[]) => {
     const now = new Date().toISOString();
-    for (const e of rows) insEvent.run(e.id, e.caseId, e.canalId ?? null, e.type, e.at, JSON.stringify(e.data), JSON.stringify(e), 'bench', now);
+    for (const e of rows)
+      insEvent.run(
+        e.id,
+        e.caseId,
+        e.canalId ?? null,
+        e.type,
+        e.at,
+        JSON.stringify(e.data),
+        JSON.stringify(e),
+        'bench',
+        now,
+      );
   });
   const t1 = performance.now();
   for (let i = 0; i < events.length; i += BATCH) insertBatch(events.slice(i, i + BATCH));

@@ -61,7 +61,12 @@ function client(baseUrl: string, jar: Map<string, string>): ApiClient {
       const headers = new Headers(init.headers);
       if (!headers.has('Content-Type')) headers.set('Content-Type', 'application/json');
       if (!headers.has('Origin')) headers.set('Origin', baseUrl);
-      return api.fetch(path, { method: 'POST', ...init, headers, body: typeof body === 'string' ? body : JSON.stringify(body) });
+      return api.fetch(path, {
+        method: 'POST',
+        ...init,
+        headers,
+        body: typeof body === 'string' ? body : JSON.stringify(body),
+      });
     },
   };
   return api;

@@ -6,7 +6,10 @@ import { createPrivateFile, FILE_MODE } from '../../src/lib/server/files.ts';
 
 /** `20261203T142233Z`: UTC, so names made with it sort in time order on any machine. */
 export function utcStamp(now = new Date()): string {
-  return now.toISOString().replace(/[-:]/g, '').replace(/\.\d+Z$/, 'Z');
+  return now
+    .toISOString()
+    .replace(/[-:]/g, '')
+    .replace(/\.\d+Z$/, 'Z');
 }
 
 /** `data/backups/coneline-20261203T142233Z.sqlite` */
@@ -33,8 +36,8 @@ export function copyPrivate(from: string, to: string): void {
   const dst = openSync(to, 'wx', FILE_MODE);
   try {
     const buf = Buffer.allocUnsafe(1 << 20);
-    for (let n; (n = readSync(src, buf, 0, buf.length, null)) > 0; ) {
-      for (let off = 0; off < n; ) off += writeSync(dst, buf, off, n - off);
+    for (let n; (n = readSync(src, buf, 0, buf.length, null)) > 0;) {
+      for (let off = 0; off < n;) off += writeSync(dst, buf, off, n - off);
     }
     fsyncSync(dst);
   } finally {

@@ -19,7 +19,11 @@ function newest(path: string): number {
 
 /** The addresses the origin check lets in are fixed at build time (astro.config.mjs). */
 function addressStamp(): string {
-  const ips = Object.values(networkInterfaces()).flat().filter((n) => n && n.family === 'IPv4').map((n) => n!.address).sort();
+  const ips = Object.values(networkInterfaces())
+    .flat()
+    .filter((n) => n && n.family === 'IPv4')
+    .map((n) => n!.address)
+    .sort();
   return [...ips, process.env.PUBLIC_HOST ?? ''].join(',');
 }
 
@@ -40,7 +44,11 @@ export function buildIfNeeded(root: string): void {
   // a build can freeze into dist/ (stack-notes.md); ours is read at run time instead.
   const env = { ...process.env };
   delete env.AUTH_SECRET;
-  const r = spawnSync(process.execPath, [resolve(root, 'node_modules/astro/astro.js'), 'build'], { cwd: root, stdio: 'inherit', env });
+  const r = spawnSync(process.execPath, [resolve(root, 'node_modules/astro/astro.js'), 'build'], {
+    cwd: root,
+    stdio: 'inherit',
+    env,
+  });
   if (r.status !== 0) process.exit(r.status ?? 1);
   writeFileSync(resolve(root, 'dist/.coneline-build-hosts'), addressStamp());
 }

@@ -17,7 +17,10 @@ export function openDb(file: string): Knex {
 }
 
 /** Runs the latest migrations; seeds the demo when asked, or when `ifEmpty` and no account exists. */
-export async function prepareDb(file: string, opts: { seed?: boolean; seedIfEmpty?: boolean } = {}): Promise<{ seeded: boolean }> {
+export async function prepareDb(
+  file: string,
+  opts: { seed?: boolean; seedIfEmpty?: boolean } = {},
+): Promise<{ seeded: boolean }> {
   const k = openDb(file);
   try {
     await k.migrate.latest();
@@ -37,7 +40,8 @@ export async function prepareDb(file: string, opts: { seed?: boolean; seedIfEmpt
 export async function installFacts(file: string): Promise<{ activeDemoAccounts: number; activeAccounts: number }> {
   const k = openDb(file);
   try {
-    const row = (await k('users').where({ active: true }).count({ n: '*' }).first()) as { n: number | string } | undefined;
+    const row = (await k('users').where({ active: true }).count({ n: '*' }).first()) as
+      { n: number | string } | undefined;
     return { activeDemoAccounts: await activeDemoAccounts(k), activeAccounts: Number(row?.n ?? 0) };
   } finally {
     await k.destroy();

@@ -74,5 +74,10 @@ export function decideClientAddress(req, trustProxy) {
 export function cameOverHttps(req, trustProxy) {
   if (req.socket?.encrypted) return true;
   if (!trustProxy) return false;
-  return String(req.headers['x-forwarded-proto'] ?? '').split(',')[0].trim().toLowerCase() === 'https';
+  return (
+    String(req.headers['x-forwarded-proto'] ?? '')
+      .split(',')[0]
+      .trim()
+      .toLowerCase() === 'https'
+  );
 }

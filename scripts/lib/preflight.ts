@@ -34,7 +34,10 @@ const set = (env: Env, name: string) => (env[name] ?? '').trim() !== '';
 
 /** The listening address reaches no other machine. */
 export function isLoopback(host: string): boolean {
-  const h = host.trim().toLowerCase().replace(/^\[(.*)\]$/, '$1');
+  const h = host
+    .trim()
+    .toLowerCase()
+    .replace(/^\[(.*)\]$/, '$1');
   if (h === 'localhost' || h === '::1') return true;
   const v4 = h.startsWith('::ffff:') ? h.slice(7) : h;
   return isIPv4(v4) && v4.startsWith('127.');
@@ -54,8 +57,10 @@ function needs(feature: Feature, what: string, names: string[]): Requirement {
 export const REQUIREMENTS: readonly Requirement[] = [
   {
     feature: 'core',
-    check: (_env, facts) => facts.activeDemoAccounts === 0 ? null
-      : `The invented demo clinic is still in the database (${facts.activeDemoAccounts} active demo account${facts.activeDemoAccounts === 1 ? '' : 's'}, whose password is published). Remove it with: npm run demo:remove`,
+    check: (_env, facts) =>
+      facts.activeDemoAccounts === 0
+        ? null
+        : `The invented demo clinic is still in the database (${facts.activeDemoAccounts} active demo account${facts.activeDemoAccounts === 1 ? '' : 's'}, whose password is published). Remove it with: npm run demo:remove`,
   },
   {
     feature: 'core',
@@ -64,7 +69,9 @@ export const REQUIREMENTS: readonly Requirement[] = [
       if (secret === '') {
         return 'AUTH_SECRET is not set. A real install keeps its own secret of at least 32 characters in its environment, not the file the demo generates; make one with: openssl rand -hex 32';
       }
-      return secret.length < 32 ? `AUTH_SECRET is ${secret.length} characters; it must be at least 32 (make one with: openssl rand -hex 32).` : null;
+      return secret.length < 32
+        ? `AUTH_SECRET is ${secret.length} characters; it must be at least 32 (make one with: openssl rand -hex 32).`
+        : null;
     },
   },
   {
@@ -85,13 +92,17 @@ export const REQUIREMENTS: readonly Requirement[] = [
   },
   {
     feature: 'core',
-    check: (env) => set(env, 'SERVER_CERT_PATH') === set(env, 'SERVER_KEY_PATH') ? null
-      : 'SERVER_CERT_PATH and SERVER_KEY_PATH go together: with only one of them set, Coneline would serve plain HTTP.',
+    check: (env) =>
+      set(env, 'SERVER_CERT_PATH') === set(env, 'SERVER_KEY_PATH')
+        ? null
+        : 'SERVER_CERT_PATH and SERVER_KEY_PATH go together: with only one of them set, Coneline would serve plain HTTP.',
   },
   {
     feature: 'core',
-    check: (env) => env.HTTPS !== '1' ? null
-      : 'HTTPS=1 makes a self-signed certificate for a demo (npm start). A real install serves HTTPS behind the school\'s TLS proxy (TRUST_PROXY=1), or with SERVER_CERT_PATH and SERVER_KEY_PATH.',
+    check: (env) =>
+      env.HTTPS !== '1'
+        ? null
+        : "HTTPS=1 makes a self-signed certificate for a demo (npm start). A real install serves HTTPS behind the school's TLS proxy (TRUST_PROXY=1), or with SERVER_CERT_PATH and SERVER_KEY_PATH.",
   },
   // Links in invitations and password resets must point at the site itself: PUBLIC_URL.
   needs('mail', 'send e-mail (invitations, password resets, review notices)', ['SMTP_HOST', 'MAIL_FROM', 'PUBLIC_URL']),
@@ -101,8 +112,7 @@ export const REQUIREMENTS: readonly Requirement[] = [
 /** Every problem that keeps this installation from starting for real use; empty when none. */
 export function preflight(env: Env, facts: InstallFacts): string[] {
   const features = facts.features ?? BUILT_FEATURES;
-  return REQUIREMENTS
-    .filter((r) => r.feature === 'core' || features.includes(r.feature))
+  return REQUIREMENTS.filter((r) => r.feature === 'core' || features.includes(r.feature))
     .map((r) => r.check(env, facts))
     .filter((p): p is string => p !== null);
 }

@@ -21,15 +21,25 @@ function checkBackup(file: string, shownAs: string): void {
     db = new Database(file, { fileMustExist: true });
     const problems = db.pragma('integrity_check') as { integrity_check: string }[];
     if (problems[0]?.integrity_check !== 'ok') {
-      throw new RestoreRefused(`${shownAs} fails its integrity check: ${problems.map((p) => p.integrity_check).slice(0, 3).join('; ')}`);
+      throw new RestoreRefused(
+        `${shownAs} fails its integrity check: ${problems
+          .map((p) => p.integrity_check)
+          .slice(0, 3)
+          .join('; ')}`,
+      );
     }
-    const migrations = db.prepare("select count(*) from sqlite_master where type = 'table' and name = 'knex_migrations'").pluck().get();
-    if (migrations !== 1) throw new RestoreRefused(`${shownAs} is not a Coneline database (it has no knex_migrations table)`);
+    const migrations = db
+      .prepare("select count(*) from sqlite_master where type = 'table' and name = 'knex_migrations'")
+      .pluck()
+      .get();
+    if (migrations !== 1)
+      throw new RestoreRefused(`${shownAs} is not a Coneline database (it has no knex_migrations table)`);
     db.pragma('journal_mode = WAL');
   } catch (err) {
     if (err instanceof RestoreRefused) throw err;
     if (codeOf(err) === 'SQLITE_NOTADB') throw new RestoreRefused(`${shownAs} is not a SQLite database`);
-    if (codeOf(err).startsWith('SQLITE_CORRUPT')) throw new RestoreRefused(`${shownAs} fails its integrity check: ${(err as Error).message}`);
+    if (codeOf(err).startsWith('SQLITE_CORRUPT'))
+      throw new RestoreRefused(`${shownAs} fails its integrity check: ${(err as Error).message}`);
     throw err;
   } finally {
     db?.close();
@@ -51,7 +61,9 @@ function checkNobodyHasItOpen(dbFile: string): void {
     db.pragma('wal_checkpoint(TRUNCATE)');
   } catch (err) {
     if (codeOf(err) === 'SQLITE_BUSY') {
-      throw new RestoreRefused('the database is open in another process (user:add, db:backup, or a server with another DATA_DIR?); close it first');
+      throw new RestoreRefused(
+        'the database is open in another process (user:add, db:backup, or a server with another DATA_DIR?); close it first',
+      );
     }
     throw err;
   } finally {
@@ -64,7 +76,8 @@ function takeDataFolder(dataDir: string) {
   try {
     return lockDataFolder(dataDir);
   } catch (err) {
-    if (err instanceof DataFolderBusyError) throw new RestoreRefused(`a Coneline server is running on this data folder (${dataDir}); stop it first`);
+    if (err instanceof DataFolderBusyError)
+      throw new RestoreRefused(`a Coneline server is running on this data folder (${dataDir}); stop it first`);
     throw err;
   }
 }

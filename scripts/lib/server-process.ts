@@ -41,7 +41,9 @@ export function freePort(): Promise<number> {
 }
 
 /** Starts the server on a copy of `templateDb` (a migrated database), or on an empty file. */
-export async function startServer(opts: { templateDb?: string; env?: Record<string, string>; outDir?: string } = {}): Promise<TestServer> {
+export async function startServer(
+  opts: { templateDb?: string; env?: Record<string, string>; outDir?: string } = {},
+): Promise<TestServer> {
   const dir = mkdtempSync(join(tmpdir(), 'coneline-test-'));
   const dbFile = join(dir, 'coneline.sqlite');
   if (opts.templateDb) {
@@ -50,15 +52,21 @@ export async function startServer(opts: { templateDb?: string; env?: Record<stri
   }
   const port = await freePort();
   let log = '';
-    // SERVER_NODE_ARGS, e.g. "--cpu-prof --cpu-prof-dir=/tmp/prof", for profiling a benchmark.
+  // SERVER_NODE_ARGS, e.g. "--cpu-prof --cpu-prof-dir=/tmp/prof", for profiling a benchmark.
   const nodeArgs = (process.env.SERVER_NODE_ARGS ?? '').split(' ').filter(Boolean);
   const child: ChildProcess = spawn(process.execPath, [...nodeArgs, SERVER], {
     cwd: ROOT,
     env: {
       // Vitest sets NODE_ENV=test; the built server runs as in production.
-      ...process.env, NODE_ENV: 'production', HOST: '127.0.0.1', PORT: String(port), DB_FILE: dbFile, DATA_DIR: dir,
+      ...process.env,
+      NODE_ENV: 'production',
+      HOST: '127.0.0.1',
+      PORT: String(port),
+      DB_FILE: dbFile,
+      DATA_DIR: dir,
       AUTH_SECRET: 'local-run-secret-local-run-secret-0123456789',
-      ...(opts.outDir ? { ASTRO_OUT_DIR: opts.outDir } : {}), ...opts.env,
+      ...(opts.outDir ? { ASTRO_OUT_DIR: opts.outDir } : {}),
+      ...opts.env,
     },
     stdio: ['ignore', 'pipe', 'pipe'],
   });

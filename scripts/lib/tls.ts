@@ -12,7 +12,10 @@ export async function tlsEnv(root: string): Promise<Record<string, string>> {
   const dir = resolve(root, 'data/tls');
   const cert = resolve(dir, 'cert.pem');
   const key = resolve(dir, 'key.pem');
-  const ips = Object.values(networkInterfaces()).flat().filter((n) => n && n.family === 'IPv4').map((n) => n!.address);
+  const ips = Object.values(networkInterfaces())
+    .flat()
+    .filter((n) => n && n.family === 'IPv4')
+    .map((n) => n!.address);
   const names = ['localhost', ...ips];
   const stamp = resolve(dir, 'names.txt');
   secureDataDir(dirname(dir));
@@ -24,7 +27,12 @@ export async function tlsEnv(root: string): Promise<Record<string, string>> {
     const pems = selfsigned.generate([{ name: 'commonName', value: 'Coneline demo' }], {
       days: 30,
       keySize: 2048,
-      extensions: [{ name: 'subjectAltName', altNames: names.map((n) => (/^\d/.test(n) ? { type: 7, ip: n } : { type: 2, value: n })) }],
+      extensions: [
+        {
+          name: 'subjectAltName',
+          altNames: names.map((n) => (/^\d/.test(n) ? { type: 7, ip: n } : { type: 2, value: n })),
+        },
+      ],
     });
     writeFileSync(cert, pems.cert);
     writeFileSync(key, pems.private, { mode: FILE_MODE });

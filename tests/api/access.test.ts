@@ -37,10 +37,20 @@ interface Row {
 }
 
 const signedIn = (status: number, anonymous: number): Record<Actor, number> => ({
-  anonymous, owner: status, otherStudent: status, assigned: status, unassigned: status, director: status,
+  anonymous,
+  owner: status,
+  otherStudent: status,
+  assigned: status,
+  unassigned: status,
+  director: status,
 });
 const readers = (anonymous: number): Record<Actor, number> => ({
-  anonymous, owner: 200, otherStudent: 404, assigned: 200, unassigned: 404, director: 200,
+  anonymous,
+  owner: 200,
+  otherStudent: 404,
+  assigned: 200,
+  unassigned: 404,
+  director: 200,
 });
 
 /** One row per route pattern (as Astro names it). */
@@ -50,7 +60,9 @@ const MATRIX: Record<string, Row[]> = {
   '/account': [{ method: 'GET', path: () => '/account', expect: signedIn(200, 302), variants: true }],
   '/admin': [
     {
-      method: 'GET', path: () => '/admin', variants: true,
+      method: 'GET',
+      path: () => '/admin',
+      variants: true,
       expect: { anonymous: 302, owner: 403, otherStudent: 403, assigned: 403, unassigned: 403, director: 200 },
     },
   ],
@@ -64,16 +76,25 @@ const MATRIX: Record<string, Row[]> = {
     { method: 'GET', path: () => '/api/auth/providers', expect: signedIn(200, 200) },
     { method: 'GET', path: () => '/api/auth/signin', expect: signedIn(404, 404) },
   ],
-  '/api/canals/[canalId]': [{ method: 'GET', path: (i) => `/api/canals/${i.canalId}`, expect: readers(401), variants: true }],
+  '/api/canals/[canalId]': [
+    { method: 'GET', path: (i) => `/api/canals/${i.canalId}`, expect: readers(401), variants: true },
+  ],
   '/api/cases': [{ method: 'GET', path: () => '/api/cases', expect: signedIn(200, 401) }],
-  '/api/cases/[caseId]': [{ method: 'GET', path: (i) => `/api/cases/${i.caseId}`, expect: readers(401), variants: true }],
+  '/api/cases/[caseId]': [
+    { method: 'GET', path: (i) => `/api/cases/${i.caseId}`, expect: readers(401), variants: true },
+  ],
   '/api/health': [{ method: 'GET', path: () => '/api/health', expect: signedIn(200, 200) }],
   '/api/me': [{ method: 'GET', path: () => '/api/me', expect: signedIn(200, 401) }],
   // A body that cannot pass validation: the matrix must change nothing.
-  '/api/me/password': [{ method: 'POST', path: () => '/api/me/password', body: { id: 'x' }, expect: signedIn(400, 401) }],
+  '/api/me/password': [
+    { method: 'POST', path: () => '/api/me/password', body: { id: 'x' }, expect: signedIn(400, 401) },
+  ],
   '/api/sync': [
     {
-      method: 'POST', path: () => '/api/sync', body: { deviceId: 'access-matrix', events: [] }, variants: true,
+      method: 'POST',
+      path: () => '/api/sync',
+      body: { deviceId: 'access-matrix', events: [] },
+      variants: true,
       expect: { anonymous: 401, owner: 200, otherStudent: 200, assigned: 403, unassigned: 403, director: 403 },
     },
   ],
@@ -83,7 +104,14 @@ const MATRIX: Record<string, Row[]> = {
 function spellings(path: string): string[] {
   const rest = path.slice(1);
   const first = rest.charCodeAt(0).toString(16);
-  return [`/${path}`, `/./${path}`, `//.${path}`, `/%5C${rest}`, `//%${first}${rest.slice(1)}`, `/%${first}${rest.slice(1)}`];
+  return [
+    `/${path}`,
+    `/./${path}`,
+    `//.${path}`,
+    `/%5C${rest}`,
+    `//%${first}${rest.slice(1)}`,
+    `/%${first}${rest.slice(1)}`,
+  ];
 }
 
 /** Every route file under src/pages, as Astro's route pattern. */
@@ -99,13 +127,21 @@ function routePatterns(): string[] {
   };
   walk(pagesDir);
   return files.map((f) => {
-    const route = relative(pagesDir, f).replace(/\.[^.]+$/, '').replace(/(^|\/)index$/, '');
+    const route = relative(pagesDir, f)
+      .replace(/\.[^.]+$/, '')
+      .replace(/(^|\/)index$/, '');
     return `/${route}`;
   });
 }
 
 /** Sends the path exactly as written (fetch would tidy its dots away). */
-function raw(baseUrl: string, method: string, path: string, cookie: string, body?: unknown): Promise<{ status: number; text: string }> {
+function raw(
+  baseUrl: string,
+  method: string,
+  path: string,
+  cookie: string,
+  body?: unknown,
+): Promise<{ status: number; text: string }> {
   const url = new URL(baseUrl);
   const payload = body === undefined ? undefined : JSON.stringify(body);
   const headers: Record<string, string> = { Cookie: cookie };

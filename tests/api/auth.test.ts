@@ -15,7 +15,10 @@ afterAll(async () => {
 
 async function postSignIn(fields: Record<string, string>): Promise<Response> {
   const csrf = await fetch(`${server.baseUrl}/api/auth/csrf`);
-  const cookie = csrf.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
+  const cookie = csrf.headers
+    .getSetCookie()
+    .map((c) => c.split(';')[0])
+    .join('; ');
   const { csrfToken } = (await csrf.json()) as { csrfToken: string };
   return fetch(`${server.baseUrl}/api/auth/callback/credentials`, {
     method: 'POST',
@@ -63,7 +66,12 @@ describe('signing in', () => {
     const email = 'guessed.at@larkfield.example';
     const k = knexFactory(sqliteOptions(server.dbFile));
     try {
-      await k('users').insert({ email, name: 'Guessed At', role: 'student', password_hash: await hashPassword(DEMO.password) });
+      await k('users').insert({
+        email,
+        name: 'Guessed At',
+        role: 'student',
+        password_hash: await hashPassword(DEMO.password),
+      });
     } finally {
       await k.destroy();
     }
@@ -82,7 +90,10 @@ describe('signing in', () => {
 
   it('refuses a form post from another site (origin check)', async () => {
     const res = await fetch(`${server.baseUrl}/signout`, {
-      method: 'POST', redirect: 'manual', headers: { 'Content-Type': 'application/x-www-form-urlencoded', Origin: 'https://elsewhere.example' }, body: '',
+      method: 'POST',
+      redirect: 'manual',
+      headers: { 'Content-Type': 'application/x-www-form-urlencoded', Origin: 'https://elsewhere.example' },
+      body: '',
     });
     expect(res.status).toBe(403);
   });
@@ -131,7 +142,11 @@ describe('ending a session', () => {
   it('makes the old session cookie useless after sign-out', async () => {
     const api = await apiSignIn(server.baseUrl, DEMO.priya, DEMO.password);
     const stolen = api.cookie;
-    const out = await api.fetch('/signout', { method: 'POST', headers: { Origin: server.baseUrl, 'Content-Type': 'application/x-www-form-urlencoded' }, body: '' });
+    const out = await api.fetch('/signout', {
+      method: 'POST',
+      headers: { Origin: server.baseUrl, 'Content-Type': 'application/x-www-form-urlencoded' },
+      body: '',
+    });
     expect(out.status).toBe(303);
     const replay = await fetch(`${server.baseUrl}/api/me`, { headers: { Cookie: stolen } });
     expect(replay.status).toBe(401);

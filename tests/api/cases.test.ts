@@ -8,8 +8,11 @@ let molarCaseId: string;
 
 beforeAll(async () => {
   server = await startServer();
-  for (const who of ['mira', 'tomas', 'helen', 'samuel', 'ingrid'] as const) as[who] = await apiSignIn(server.baseUrl, DEMO[who], DEMO.password);
-  const list = (await (await as.mira!.fetch('/api/cases')).json()) as { cases: { caseId: string; tooth: number | null }[] };
+  for (const who of ['mira', 'tomas', 'helen', 'samuel', 'ingrid'] as const)
+    as[who] = await apiSignIn(server.baseUrl, DEMO[who], DEMO.password);
+  const list = (await (await as.mira!.fetch('/api/cases')).json()) as {
+    cases: { caseId: string; tooth: number | null }[];
+  };
   molarCaseId = list.cases.find((c) => c.tooth === 36)!.caseId;
 });
 afterAll(async () => {
@@ -17,15 +20,17 @@ afterAll(async () => {
 });
 
 describe('GET /api/cases', () => {
-  it('lists a student\'s own cases only, newest first', async () => {
-    const mira = (await (await as.mira!.fetch('/api/cases')).json()) as { cases: { studentName: string; openedAt: string }[] };
+  it("lists a student's own cases only, newest first", async () => {
+    const mira = (await (await as.mira!.fetch('/api/cases')).json()) as {
+      cases: { studentName: string; openedAt: string }[];
+    };
     expect(mira.cases.length).toBeGreaterThan(0);
     expect(new Set(mira.cases.map((c) => c.studentName))).toEqual(new Set(['Mira Okafor']));
     const dates = mira.cases.map((c) => c.openedAt);
     expect(dates).toEqual([...dates].sort().reverse());
   });
 
-  it('lists an attending\'s assigned students\' cases only', async () => {
+  it("lists an attending's assigned students' cases only", async () => {
     const samuel = (await (await as.samuel!.fetch('/api/cases')).json()) as { cases: { studentName: string }[] };
     expect(new Set(samuel.cases.map((c) => c.studentName))).toEqual(new Set(['Tomas Lindqvist', 'Priya Raman']));
   });

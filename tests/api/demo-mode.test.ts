@@ -16,7 +16,11 @@ afterAll(async () => {
 });
 
 function run(script: string, ...args: string[]): void {
-  const r = spawnSync(process.execPath, [TSX, script, ...args], { cwd: ROOT, env: { ...process.env, DB_FILE: server.dbFile }, encoding: 'utf8' });
+  const r = spawnSync(process.execPath, [TSX, script, ...args], {
+    cwd: ROOT,
+    env: { ...process.env, DB_FILE: server.dbFile },
+    encoding: 'utf8',
+  });
   if (r.status !== 0) throw new Error(`${script} failed: ${r.stderr}`);
 }
 
@@ -34,12 +38,27 @@ describe('demo mode', () => {
   });
 
   it('ends within seconds of npm run demo:remove, with no restart', async () => {
-    run('scripts/user-add.ts', '--email', HEAD.email, '--name', 'Head of Endodontics', '--role', 'director', '--password', HEAD.password);
+    run(
+      'scripts/user-add.ts',
+      '--email',
+      HEAD.email,
+      '--name',
+      'Head of Endodontics',
+      '--role',
+      'director',
+      '--password',
+      HEAD.password,
+    );
     const head = await apiSignIn(server.baseUrl, HEAD.email, HEAD.password);
     expect(await (await head.fetch('/api/me')).json()).toMatchObject({ demo: true });
     run('scripts/demo-remove.ts');
     const removedAt = Date.now();
-    await expect.poll(async () => ((await (await head.fetch('/api/me')).json()) as { demo: boolean }).demo, { timeout: 8_000, interval: 250 }).toBe(false);
+    await expect
+      .poll(async () => ((await (await head.fetch('/api/me')).json()) as { demo: boolean }).demo, {
+        timeout: 8_000,
+        interval: 250,
+      })
+      .toBe(false);
     // The flag is kept for 3 s at most: well under 8 s even on a busy machine.
     expect(Date.now() - removedAt).toBeLessThan(8_000);
     expect(await signinPage()).not.toContain(BANNER);

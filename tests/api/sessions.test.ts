@@ -28,15 +28,22 @@ async function withDb<T>(fn: (k: ReturnType<typeof knexFactory>) => Promise<T>):
 
 async function addAccount(email: string, password = DEMO.password): Promise<number> {
   return withDb(async (k) => {
-    const [row] = await k('users').insert({ email, name: 'Session Tester', role: 'student', password_hash: await hashPassword(password) }).returning('id');
+    const [row] = await k('users')
+      .insert({ email, name: 'Session Tester', role: 'student', password_hash: await hashPassword(password) })
+      .returning('id');
     return typeof row === 'object' ? (row as { id: number }).id : (row as number);
   });
 }
 
 const formPost = (api: ApiClient, path: string, body: string) =>
-  api.fetch(path, { method: 'POST', headers: { Origin: server.baseUrl, 'Content-Type': 'application/x-www-form-urlencoded' }, body });
+  api.fetch(path, {
+    method: 'POST',
+    headers: { Origin: server.baseUrl, 'Content-Type': 'application/x-www-form-urlencoded' },
+    body,
+  });
 
-const meStatus = async (cookie: string) => (await fetch(`${server.baseUrl}/api/me`, { headers: { Cookie: cookie } })).status;
+const meStatus = async (cookie: string) =>
+  (await fetch(`${server.baseUrl}/api/me`, { headers: { Cookie: cookie } })).status;
 
 describe('signing out', () => {
   it('ends this device’s session only', async () => {
@@ -99,7 +106,11 @@ describe('setActive', () => {
     await withDb((k) => setActive(k, id, true, null));
     expect(await meStatus(cookie)).toBe(401);
     await expect(apiSignIn(server.baseUrl, email, DEMO.password)).resolves.toBeDefined();
-    const audit = await withDb((k) => k('audit_log').where({ subject_type: 'user', subject_id: String(id) }).pluck('action'));
+    const audit = await withDb((k) =>
+      k('audit_log')
+        .where({ subject_type: 'user', subject_id: String(id) })
+        .pluck('action'),
+    );
     expect(audit).toEqual(expect.arrayContaining(['user.deactivated', 'user.reactivated']));
   });
 });
@@ -111,7 +122,11 @@ describe('changing one’s own password', () => {
     const email = 'wrong.current@larkfield.example';
     await addAccount(email);
     const api = await apiSignIn(server.baseUrl, email, DEMO.password);
-    const res = await change(api, { id: 'req-wrong-current-1', currentPassword: 'not-my-password', newPassword: 'a-brand-new-passphrase' });
+    const res = await change(api, {
+      id: 'req-wrong-current-1',
+      currentPassword: 'not-my-password',
+      newPassword: 'a-brand-new-passphrase',
+    });
     expect(res.status).toBe(400);
     expect(await res.json()).toMatchObject({ field: 'currentPassword' });
   });
@@ -152,7 +167,9 @@ describe('changing one’s own password', () => {
     await addAccount(email);
     const api = await apiSignIn(server.baseUrl, email, DEMO.password);
     const body = { id: 'req-cross-1', currentPassword: DEMO.password, newPassword: 'grey-heron-over-the-marsh' };
-    expect((await api.post('/api/me/password', body, { headers: { Origin: 'https://elsewhere.example' } })).status).toBe(403);
+    expect(
+      (await api.post('/api/me/password', body, { headers: { Origin: 'https://elsewhere.example' } })).status,
+    ).toBe(403);
     expect((await api.post('/api/me/password', body, { headers: { 'Content-Type': 'text/plain' } })).status).toBe(415);
   });
 });

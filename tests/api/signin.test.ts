@@ -20,7 +20,12 @@ afterAll(async () => {
 async function addAccount(s: TestServer, email: string): Promise<void> {
   const k = knexFactory(sqliteOptions(s.dbFile));
   try {
-    await k('users').insert({ email, name: 'Test Account', role: 'student', password_hash: await hashPassword(DEMO.password) });
+    await k('users').insert({
+      email,
+      name: 'Test Account',
+      role: 'student',
+      password_hash: await hashPassword(DEMO.password),
+    });
   } finally {
     await k.destroy();
   }
@@ -34,9 +39,18 @@ interface Outcome {
 }
 
 /** Posts the sign-in form from a loopback address of our choice, as a browser would. */
-async function signInFrom(s: TestServer, address: string, email: string, password: string, headers: Record<string, string> = {}): Promise<Outcome> {
+async function signInFrom(
+  s: TestServer,
+  address: string,
+  email: string,
+  password: string,
+  headers: Record<string, string> = {},
+): Promise<Outcome> {
   const csrf = await fromAddress(address, `${s.baseUrl}/api/auth/csrf`, { headers });
-  const cookie = ([] as string[]).concat(csrf.headers['set-cookie'] ?? []).map((c) => c.split(';')[0]).join('; ');
+  const cookie = ([] as string[])
+    .concat(csrf.headers['set-cookie'] ?? [])
+    .map((c) => c.split(';')[0])
+    .join('; ');
   const { csrfToken } = JSON.parse(csrf.text) as { csrfToken: string };
   const res = await fromAddress(address, `${s.baseUrl}/api/auth/callback/credentials`, {
     method: 'POST',
@@ -53,7 +67,13 @@ async function signInFrom(s: TestServer, address: string, email: string, passwor
   };
 }
 
-async function failTimes(s: TestServer, n: number, address: string, email: (i: number) => string, headers: Record<string, string> = {}) {
+async function failTimes(
+  s: TestServer,
+  n: number,
+  address: string,
+  email: (i: number) => string,
+  headers: Record<string, string> = {},
+) {
   for (let i = 0; i < n; i++) {
     const r = await signInFrom(s, address, email(i), `wrong-guess-number-${i}`, headers);
     expect(r.code).toBe('credentials');
@@ -85,7 +105,8 @@ describe('the limits on failed sign-ins', () => {
   it('never counts successful sign-ins, and a success clears its own count', async () => {
     const email = 'often.in@larkfield.example';
     await addAccount(server, email);
-    for (let i = 0; i < 8; i++) expect((await signInFrom(server, '127.0.0.5', email, DEMO.password)).signedIn).toBe(true);
+    for (let i = 0; i < 8; i++)
+      expect((await signInFrom(server, '127.0.0.5', email, DEMO.password)).signedIn).toBe(true);
     await failTimes(server, 4, '127.0.0.5', () => email);
     expect((await signInFrom(server, '127.0.0.5', email, DEMO.password)).signedIn).toBe(true);
     await failTimes(server, 4, '127.0.0.5', () => email);
@@ -103,7 +124,9 @@ describe('the limits on failed sign-ins', () => {
     const email = 'spoofer.target@larkfield.example';
     await addAccount(server, email);
     for (let i = 0; i < 5; i++) {
-      const r = await signInFrom(server, '127.0.0.8', email, `wrong-${i}-password`, { 'X-Forwarded-For': `198.51.100.${i + 1}` });
+      const r = await signInFrom(server, '127.0.0.8', email, `wrong-${i}-password`, {
+        'X-Forwarded-For': `198.51.100.${i + 1}`,
+      });
       expect(r.code).toBe('credentials');
     }
     const held = await signInFrom(server, '127.0.0.8', email, DEMO.password, { 'X-Forwarded-For': '198.51.100.99' });
@@ -116,10 +139,14 @@ describe('the limits on failed sign-ins', () => {
       const email = 'behind.proxy@larkfield.example';
       await addAccount(proxied, email);
       for (let i = 0; i < 5; i++) {
-        const r = await signInFrom(proxied, '127.0.0.1', email, `wrong-${i}-password`, { 'X-Forwarded-For': `203.0.113.${i + 1}, 192.0.2.10` });
+        const r = await signInFrom(proxied, '127.0.0.1', email, `wrong-${i}-password`, {
+          'X-Forwarded-For': `203.0.113.${i + 1}, 192.0.2.10`,
+        });
         expect(r.code).toBe('credentials');
       }
-      const held = await signInFrom(proxied, '127.0.0.1', email, DEMO.password, { 'X-Forwarded-For': '203.0.113.77, 192.0.2.10' });
+      const held = await signInFrom(proxied, '127.0.0.1', email, DEMO.password, {
+        'X-Forwarded-For': '203.0.113.77, 192.0.2.10',
+      });
       expect(held.code).toBe('throttled');
       const other = await signInFrom(proxied, '127.0.0.1', email, DEMO.password, { 'X-Forwarded-For': '192.0.2.11' });
       expect(other.signedIn).toBe(true);

@@ -17,7 +17,12 @@ afterAll(async () => {
   await server?.stop();
 });
 
-interface Result { id: string; status: string; error?: string; retry?: boolean }
+interface Result {
+  id: string;
+  status: string;
+  error?: string;
+  retry?: boolean;
+}
 
 async function sync(events: WireEvent[]): Promise<Map<string, Result>> {
   const res = await priya.post('/api/sync', { deviceId: 'tablet-limits', events });
@@ -76,7 +81,8 @@ describe('POST /api/sync, limits', () => {
     const canal = w.canal();
     while (w.events.length < 1 + LIMITS.eventsPerCanal + 3) w.add('note.added', { text: `n${w.events.length}` }, canal);
     const answers = await sync(w.events);
-    for (const e of w.events.slice(-3)) expect(answers.get(e.id)).toEqual({ id: e.id, ...refusedFor('eventsPerCanal') });
+    for (const e of w.events.slice(-3))
+      expect(answers.get(e.id)).toEqual({ id: e.id, ...refusedFor('eventsPerCanal') });
     expect([...answers.values()].filter((r) => r.status === 'stored')).toHaveLength(1 + LIMITS.eventsPerCanal);
   });
 

@@ -23,16 +23,29 @@ afterAll(async () => {
   await server?.stop();
 });
 
-interface Result { id: string | null; status: string; retry?: boolean }
+interface Result {
+  id: string | null;
+  status: string;
+  retry?: boolean;
+}
 
 /** A random procedure: 1–2 canals, some of the steps, maybe a void, maybe a bad event. */
-function scenario(s: { setting: 'block' | 'extracted' | 'patient'; canals: number; cones: number; keep: boolean[]; voidAt: number | null; bad: boolean }) {
+function scenario(s: {
+  setting: 'block' | 'extracted' | 'patient';
+  canals: number;
+  cones: number;
+  keep: boolean[];
+  voidAt: number | null;
+  bad: boolean;
+}) {
   const w = new EventWriter();
   w.open(s.setting, 36);
   const ids = Array.from({ length: s.canals }, (_, i) => w.canal(['MB', 'D'][i]!, 20 + i));
   for (const id of ids) w.textbook(id, 20 + ids.indexOf(id), s.cones);
   // Drop some steps (never the case or canal set-up) so canals end in every state.
-  const kept = w.events.filter((e, i) => e.type === 'case.opened' || e.type === 'canal.added' || s.keep[i % s.keep.length]);
+  const kept = w.events.filter(
+    (e, i) => e.type === 'case.opened' || e.type === 'canal.added' || s.keep[i % s.keep.length],
+  );
   if (s.voidAt !== null && kept.length > 1 + s.canals) {
     const targets = kept.filter((e) => e.type !== 'case.opened');
     const target = targets[s.voidAt % targets.length]!;
@@ -67,15 +80,28 @@ describe('syncing in any batching, order and repetition', () => {
           let round = 0;
           while (outbox.length > 0 && round < 500) {
             const size = s.sizes[round % s.sizes.length]!;
-            const batch = outbox.slice(0, size).map((e, i) => ({ e, key: s.shuffle[(round * 7 + i) % s.shuffle.length]! })).sort((a, b) => a.key - b.key).map((x) => x.e);
-            const send = async () => (await api.post('/api/sync', { deviceId: 'model', events: batch })).json() as Promise<{ results: Result[] }>;
+            const batch = outbox
+              .slice(0, size)
+              .map((e, i) => ({ e, key: s.shuffle[(round * 7 + i) % s.shuffle.length]! }))
+              .sort((a, b) => a.key - b.key)
+              .map((x) => x.e);
+            const send = async () =>
+              (await api.post('/api/sync', { deviceId: 'model', events: batch })).json() as Promise<{
+                results: Result[];
+              }>;
             const answer = await send();
             if (s.repeats[round % s.repeats.length]) await send(); // a double send
             if (s.cuts[round % s.cuts.length] && round < 20) {
               round++;
               continue; // the answer was lost: the outbox keeps everything and sends again
             }
-            const done = new Set(answer.results.filter((r) => r.status === 'stored' || r.status === 'duplicate' || (r.status === 'rejected' && !r.retry)).map((r) => r.id));
+            const done = new Set(
+              answer.results
+                .filter(
+                  (r) => r.status === 'stored' || r.status === 'duplicate' || (r.status === 'rejected' && !r.retry),
+                )
+                .map((r) => r.id),
+            );
             outbox = outbox.filter((e) => !done.has(e.id));
             round++;
           }
@@ -110,22 +136,46 @@ describe('fuzzed sync bodies', () => {
         id: fc.oneof(fc.uuid(), fc.string(), fc.integer()),
         caseId: fc.oneof(fc.uuid(), fc.string()),
         canalId: fc.oneof(fc.uuid(), fc.constant(undefined), fc.integer()),
-        type: fc.oneof(fc.constantFrom('case.opened', 'canal.added', 'spreader.placed', 'event.voided', 'nope'), fc.string()),
-        at: fc.oneof(fc.date({ noInvalidDate: true }).map((d) => d.toISOString()), fc.string()),
-        data: fc.oneof(fc.jsonValue(), fc.dictionary(fc.constantFrom('depthMm', 'size', 'setting', 'tooth', 'cwlMm', 'eventId'), fc.jsonValue())),
+        type: fc.oneof(
+          fc.constantFrom('case.opened', 'canal.added', 'spreader.placed', 'event.voided', 'nope'),
+          fc.string(),
+        ),
+        at: fc.oneof(
+          fc.date({ noInvalidDate: true }).map((d) => d.toISOString()),
+          fc.string(),
+        ),
+        data: fc.oneof(
+          fc.jsonValue(),
+          fc.dictionary(fc.constantFrom('depthMm', 'size', 'setting', 'tooth', 'cwlMm', 'eventId'), fc.jsonValue()),
+        ),
       },
       { requiredKeys: [] },
     );
     const body = fc.oneof(
       fc.jsonValue().map((v) => JSON.stringify(v)),
       fc.string(),
-      fc.record({ deviceId: fc.oneof(fc.string(), fc.jsonValue()), events: fc.oneof(fc.array(eventish, { maxLength: 8 }), fc.jsonValue()) }).map((v) => JSON.stringify(v)),
+      fc
+        .record({
+          deviceId: fc.oneof(fc.string(), fc.jsonValue()),
+          events: fc.oneof(fc.array(eventish, { maxLength: 8 }), fc.jsonValue()),
+        })
+        .map((v) => JSON.stringify(v)),
     );
-    const type = fc.constantFrom('application/json', 'application/json; charset=utf-8', 'text/plain', 'application/x-www-form-urlencoded', '');
+    const type = fc.constantFrom(
+      'application/json',
+      'application/json; charset=utf-8',
+      'text/plain',
+      'application/x-www-form-urlencoded',
+      '',
+    );
     await fc.assert(
       fc.asyncProperty(body, type, async (b, t) => {
         const headers: Record<string, string> = t ? { 'Content-Type': t } : {};
-        const res = await api.fetch('/api/sync', { method: 'POST', headers: { Origin: server.baseUrl, ...headers }, body: b });
+        const res = await api.fetch('/api/sync', {
+          method: 'POST',
+          headers: { Origin: server.baseUrl, ...headers },
+          body: b,
+        });
         expect(ALLOWED.has(res.status), `status ${res.status} for ${b.slice(0, 200)}`).toBe(true);
         await res.arrayBuffer();
       }),

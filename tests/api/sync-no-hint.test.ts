@@ -12,7 +12,10 @@ let tomas: ApiClient;
 
 beforeAll(async () => {
   server = await startServer();
-  [mira, tomas] = await Promise.all([apiSignIn(server.baseUrl, DEMO.mira, DEMO.password), apiSignIn(server.baseUrl, DEMO.tomas, DEMO.password)]);
+  [mira, tomas] = await Promise.all([
+    apiSignIn(server.baseUrl, DEMO.mira, DEMO.password),
+    apiSignIn(server.baseUrl, DEMO.tomas, DEMO.password),
+  ]);
 });
 afterAll(async () => {
   await server?.stop();
@@ -31,7 +34,9 @@ async function mirasCase() {
   const opened = w.open();
   const canalId = w.canal();
   const step = w.add('seat.checked', { fileSize: '35', lengthMm: 21, result: 'seated' }, canalId);
-  expect(JSON.parse(await raw(mira, w.events)).results.every((r: { status: string }) => r.status === 'stored')).toBe(true);
+  expect(JSON.parse(await raw(mira, w.events)).results.every((r: { status: string }) => r.status === 'stored')).toBe(
+    true,
+  );
   return { caseId: w.caseId, canalId, opened, step };
 }
 
@@ -46,8 +51,8 @@ async function tomasCase() {
 /** The same event for a case nobody has: the answer every probe must equal. */
 const forUnknownCase = (e: WireEvent): WireEvent => ({ ...e, caseId: randomUUID() });
 
-describe('POST /api/sync gives no hint of others\' ids', () => {
-  it('answers case.opened with another student\'s case id as for an unknown case', async () => {
+describe("POST /api/sync gives no hint of others' ids", () => {
+  it("answers case.opened with another student's case id as for an unknown case", async () => {
     const theirs = await mirasCase();
     const probe: WireEvent = { ...new EventWriter().open(), caseId: theirs.caseId };
     const baseline = { ...new EventWriter().add('note.added', { text: 'probe' }), id: probe.id };
@@ -56,7 +61,7 @@ describe('POST /api/sync gives no hint of others\' ids', () => {
     expect(JSON.parse(answer).results[0]).toMatchObject({ status: 'rejected', retry: true });
   });
 
-  it('answers canal.added with a canal id of another student\'s case as for an unknown case', async () => {
+  it("answers canal.added with a canal id of another student's case as for an unknown case", async () => {
     const theirs = await mirasCase();
     const own = await tomasCase();
     own.canal();
@@ -74,16 +79,23 @@ describe('POST /api/sync gives no hint of others\' ids', () => {
     expect(answer.replaceAll(probe.id, 'ID')).toBe((await raw(tomas, [baseline])).replaceAll(baseline.id, 'ID'));
   });
 
-  it('answers an event for another student\'s case, sent again or new, as for an unknown case', async () => {
+  it("answers an event for another student's case, sent again or new, as for an unknown case", async () => {
     const theirs = await mirasCase();
-    const step = { ...new EventWriter().add('seat.checked', { fileSize: '35', lengthMm: 20, result: 'seated' }, theirs.canalId), caseId: theirs.caseId };
+    const step = {
+      ...new EventWriter().add('seat.checked', { fileSize: '35', lengthMm: 20, result: 'seated' }, theirs.canalId),
+      caseId: theirs.caseId,
+    };
     const answer = await raw(tomas, [step]);
     expect(answer).toBe(await raw(tomas, [forUnknownCase(step)]));
     const again = await raw(tomas, [theirs.opened]);
-    expect(again).toBe(await raw(tomas, [forUnknownCase({ ...new EventWriter().add('note.added', { text: 'x' }), id: theirs.opened.id })]));
+    expect(again).toBe(
+      await raw(tomas, [
+        forUnknownCase({ ...new EventWriter().add('note.added', { text: 'x' }), id: theirs.opened.id }),
+      ]),
+    );
   });
 
-  it('answers a step naming another student\'s canal, and a withdrawal naming their event, as for ids not on the server', async () => {
+  it("answers a step naming another student's canal, and a withdrawal naming their event, as for ids not on the server", async () => {
     const theirs = await mirasCase();
     const own = await tomasCase();
     const canalId = own.canal();
@@ -96,7 +108,7 @@ describe('POST /api/sync gives no hint of others\' ids', () => {
     expect(await raw(tomas, [undo])).toBe(await raw(tomas, [unknownTarget]));
   });
 
-  it('keeps a student\'s own taken ids answered as before', async () => {
+  it("keeps a student's own taken ids answered as before", async () => {
     const mine = await mirasCase();
     const again = JSON.parse(await raw(mira, [mine.opened, { ...mine.opened, id: randomUUID() }])).results;
     expect(again[0]).toEqual({ id: mine.opened.id, status: 'duplicate' });
@@ -104,10 +116,18 @@ describe('POST /api/sync gives no hint of others\' ids', () => {
     expect(again[1].retry).toBeUndefined();
     const other = new EventWriter();
     other.open();
-    const canal = { ...other.add('canal.added', { name: 'D', referencePoint: 'cusp', cwlMm: 21, mafSize: '35', preparation: 'step-back' }, mine.canalId) };
+    const canal = {
+      ...other.add(
+        'canal.added',
+        { name: 'D', referencePoint: 'cusp', cwlMm: 21, mafSize: '35', preparation: 'step-back' },
+        mine.canalId,
+      ),
+    };
     const reused = JSON.parse(await raw(mira, other.events)).results;
     expect(reused[1]).toMatchObject({ id: canal.id, status: 'rejected', error: 'this canal was already added' });
-    const changed = JSON.parse(await raw(mira, [{ ...mine.step, data: { fileSize: '35', lengthMm: 20, result: 'seated' } }])).results[0];
+    const changed = JSON.parse(
+      await raw(mira, [{ ...mine.step, data: { fileSize: '35', lengthMm: 20, result: 'seated' } }]),
+    ).results[0];
     expect(changed.error).toMatch(/already used for a different event/);
   });
 });

@@ -13,7 +13,10 @@ let k: Knex;
 
 beforeAll(async () => {
   server = await startServer();
-  [mira, tomas] = await Promise.all([apiSignIn(server.baseUrl, DEMO.mira, DEMO.password), apiSignIn(server.baseUrl, DEMO.tomas, DEMO.password)]);
+  [mira, tomas] = await Promise.all([
+    apiSignIn(server.baseUrl, DEMO.mira, DEMO.password),
+    apiSignIn(server.baseUrl, DEMO.tomas, DEMO.password),
+  ]);
   k = knexFactory(sqliteOptions(server.dbFile));
 });
 afterAll(async () => {
@@ -23,15 +26,25 @@ afterAll(async () => {
 
 interface Answer {
   results: { id: string | null; status: string; error?: string; retry?: boolean }[];
-  canals: { canalId: string; caseId: string; state: { status: string; cwlMm: number; accessoryCones: number; complete: boolean }; findings: { code: string; severity: string; eventId?: string; message: string }[] }[];
+  canals: {
+    canalId: string;
+    caseId: string;
+    state: { status: string; cwlMm: number; accessoryCones: number; complete: boolean };
+    findings: { code: string; severity: string; eventId?: string; message: string }[];
+  }[];
 }
 
-async function sync(api: ApiClient, events: unknown[], deviceId = 'tablet-test'): Promise<{ status: number; body: Answer }> {
+async function sync(
+  api: ApiClient,
+  events: unknown[],
+  deviceId = 'tablet-test',
+): Promise<{ status: number; body: Answer }> {
   const res = await api.post('/api/sync', { deviceId, events });
   return { status: res.status, body: (await res.json()) as Answer };
 }
 
-const count = async (caseId: string) => Number(((await k('events').where({ case_id: caseId }).count({ n: '*' })) as { n: number }[])[0]!.n);
+const count = async (caseId: string) =>
+  Number(((await k('events').where({ case_id: caseId }).count({ n: '*' })) as { n: number }[])[0]!.n);
 
 describe('POST /api/sync', () => {
   it('stores a new case, its canal and its steps, and answers the canal recomputed', async () => {
@@ -44,7 +57,11 @@ describe('POST /api/sync', () => {
     expect(body.results.map((r) => r.status)).toEqual(w.events.map(() => 'stored'));
     expect(body.results.map((r) => r.id)).toEqual(w.events.map((e) => e.id));
     expect(body.canals).toHaveLength(1);
-    expect(body.canals[0]).toMatchObject({ canalId: canal, caseId: w.caseId, state: { cwlMm: 21, accessoryCones: 4, complete: true } });
+    expect(body.canals[0]).toMatchObject({
+      canalId: canal,
+      caseId: w.caseId,
+      state: { cwlMm: 21, accessoryCones: 4, complete: true },
+    });
     expect(body.canals[0]!.findings.filter((f) => f.severity !== 'note')).toEqual([]);
     expect(await count(w.caseId)).toBe(w.events.length);
   });
@@ -65,7 +82,14 @@ describe('POST /api/sync', () => {
     const canal = w.canal();
     const fit = w.add('master.fitted', { size: '35', lengthMm: 21, reachedLength: true }, canal);
     await sync(mira, w.events);
-    const resend = { data: { reachedLength: true, lengthMm: 21, size: 35 }, at: fit.at, type: fit.type, canalId: canal, caseId: w.caseId, id: fit.id };
+    const resend = {
+      data: { reachedLength: true, lengthMm: 21, size: 35 },
+      at: fit.at,
+      type: fit.type,
+      canalId: canal,
+      caseId: w.caseId,
+      id: fit.id,
+    };
     const { body } = await sync(mira, [resend]);
     expect(body.results).toEqual([{ id: fit.id, status: 'duplicate' }]);
   });
@@ -130,7 +154,7 @@ describe('POST /api/sync', () => {
     expect(body.canals.map((c) => c.canalId).sort()).toEqual([a, b].sort());
   });
 
-  it('refuses to write into another student\'s case, as if it did not exist', async () => {
+  it("refuses to write into another student's case, as if it did not exist", async () => {
     const w = new EventWriter();
     w.open();
     const canal = w.canal();
@@ -170,7 +194,10 @@ describe('POST /api/sync', () => {
     const w = new EventWriter();
     w.open();
     await sync(mira, w.events, 'tablet-7');
-    const row = await k('events').join('users', 'users.id', 'events.user_id').where('events.id', w.events[0]!.id).first('users.email', 'events.device_id');
+    const row = await k('events')
+      .join('users', 'users.id', 'events.user_id')
+      .where('events.id', w.events[0]!.id)
+      .first('users.email', 'events.device_id');
     expect(row).toEqual({ email: DEMO.mira, device_id: 'tablet-7' });
   });
 });
@@ -188,7 +215,7 @@ describe('POST /api/sync, edge cases', () => {
     expect(body.canals[0]!.findings.length).toBeGreaterThan(500);
   });
 
-  it('refuses a batch whose outbox belongs to another account than the session\'s', async () => {
+  it("refuses a batch whose outbox belongs to another account than the session's", async () => {
     const w = new EventWriter();
     w.open();
     const me = (await (await mira.fetch('/api/me')).json()) as { id: number };
@@ -227,7 +254,7 @@ describe('POST /api/sync, edge cases', () => {
     expect((await k('cases').where({ id: w.caseId }).first()).review_status).toBe('open');
   });
 
-  it('answers a returned case\'s canals with the same status in the sync answer as on reading', async () => {
+  it("answers a returned case's canals with the same status in the sync answer as on reading", async () => {
     const w = new EventWriter();
     w.open();
     const canal = w.canal();
@@ -239,12 +266,16 @@ describe('POST /api/sync, edge cases', () => {
     expect(body.canals[0]).toEqual(read);
   });
 
-  it('rejects another student\'s event sent again, rather than calling it a duplicate or saying whose it is', async () => {
+  it("rejects another student's event sent again, rather than calling it a duplicate or saying whose it is", async () => {
     const w = new EventWriter();
     w.open();
     await sync(mira, w.events);
     const { body } = await sync(tomas, w.events);
-    expect(body.results[0]).toMatchObject({ status: 'rejected', error: 'the case of this event is not on the server yet; it will be sent again', retry: true });
+    expect(body.results[0]).toMatchObject({
+      status: 'rejected',
+      error: 'the case of this event is not on the server yet; it will be sent again',
+      retry: true,
+    });
   });
 
   it('rejects a withdrawal that names an event outside its own canal', async () => {
@@ -297,12 +328,20 @@ describe('POST /api/sync answers', () => {
     }
   });
   it('403 when the Origin is another site or missing', async () => {
-    expect((await mira.post('/api/sync', batch(), { headers: { Origin: 'https://elsewhere.example' } })).status).toBe(403);
-    const noOrigin = await mira.fetch('/api/sync', { method: 'POST', headers: { 'Content-Type': 'application/json' }, body: JSON.stringify(batch()) });
+    expect((await mira.post('/api/sync', batch(), { headers: { Origin: 'https://elsewhere.example' } })).status).toBe(
+      403,
+    );
+    const noOrigin = await mira.fetch('/api/sync', {
+      method: 'POST',
+      headers: { 'Content-Type': 'application/json' },
+      body: JSON.stringify(batch()),
+    });
     expect(noOrigin.status).toBe(403);
   });
   it('415 when the body is not JSON', async () => {
-    expect((await mira.post('/api/sync', JSON.stringify(batch()), { headers: { 'Content-Type': 'text/plain' } })).status).toBe(415);
+    expect(
+      (await mira.post('/api/sync', JSON.stringify(batch()), { headers: { 'Content-Type': 'text/plain' } })).status,
+    ).toBe(415);
   });
   it('413 over 500 events or over 1 MB, storing nothing', async () => {
     const w = new EventWriter();

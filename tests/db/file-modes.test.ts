@@ -45,9 +45,15 @@ describe('prepareDb (npm start, user:add, the tests)', () => {
 describe('the Knex CLI (knexfile.ts)', () => {
   it('creates the data folder 0700 and the database 0600', () => {
     const file = join(dir, 'cli', 'coneline.sqlite');
-    execFileSync(process.execPath, [TSX, 'node_modules/knex/bin/cli.js', 'migrate:latest', '--knexfile', 'knexfile.ts'], {
-      cwd: ROOT, env: { ...process.env, DB_FILE: file }, stdio: 'pipe',
-    });
+    execFileSync(
+      process.execPath,
+      [TSX, 'node_modules/knex/bin/cli.js', 'migrate:latest', '--knexfile', 'knexfile.ts'],
+      {
+        cwd: ROOT,
+        env: { ...process.env, DB_FILE: file },
+        stdio: 'pipe',
+      },
+    );
     expect(mode(join(dir, 'cli'))).toBe(0o700);
     expect(dbModes(file).every((m) => m === 0o600)).toBe(true);
   });
@@ -63,10 +69,14 @@ describe("the built server's db()", () => {
     try {
       // A sign-in attempt makes the server open (and migrate) its database.
       const csrf = await fetch(`${server.baseUrl}/api/auth/csrf`);
-      const cookie = csrf.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
+      const cookie = csrf.headers
+        .getSetCookie()
+        .map((c) => c.split(';')[0])
+        .join('; ');
       const { csrfToken } = (await csrf.json()) as { csrfToken: string };
       await fetch(`${server.baseUrl}/api/auth/callback/credentials`, {
-        method: 'POST', redirect: 'manual',
+        method: 'POST',
+        redirect: 'manual',
         headers: { 'Content-Type': 'application/x-www-form-urlencoded', Origin: server.baseUrl, Cookie: cookie },
         body: new URLSearchParams({ csrfToken, email: 'nobody@example.org', password: 'not-a-real-password' }),
       });

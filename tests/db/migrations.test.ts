@@ -9,12 +9,26 @@ import { sqliteOptions } from '../../src/lib/server/knex-options';
 import { ROOT, TSX } from '../helpers/paths';
 
 const DOMAIN_TABLES = [
-  'users', 'cohorts', 'assignments', 'cases', 'canals', 'events', 'findings', 'radiographs',
-  'signoffs', 'comments', 'invitations', 'password_resets', 'settings', 'audit_log',
+  'users',
+  'cohorts',
+  'assignments',
+  'cases',
+  'canals',
+  'events',
+  'findings',
+  'radiographs',
+  'signoffs',
+  'comments',
+  'invitations',
+  'password_resets',
+  'settings',
+  'audit_log',
 ];
 
 async function tables(k: Knex): Promise<string[]> {
-  const rows = (await k.raw("select name from sqlite_master where type = 'table' and name not like 'sqlite_%'")) as { name: string }[];
+  const rows = (await k.raw("select name from sqlite_master where type = 'table' and name not like 'sqlite_%'")) as {
+    name: string;
+  }[];
   return rows.map((r) => r.name).sort();
 }
 
@@ -54,15 +68,32 @@ describe('the migrations', () => {
   it('refuse a canal whose case does not exist (foreign keys are on)', async () => {
     await k.migrate.latest({ migrationSource: bundledMigrations });
     await expect(
-      k('canals').insert({ id: '00000000-0000-4000-8000-000000000001', case_id: '00000000-0000-4000-8000-000000000002', name: 'MB', status: 'set-up', state_json: '{}' }),
+      k('canals').insert({
+        id: '00000000-0000-4000-8000-000000000001',
+        case_id: '00000000-0000-4000-8000-000000000002',
+        name: 'MB',
+        status: 'set-up',
+        state_json: '{}',
+      }),
     ).rejects.toThrow(/FOREIGN KEY/);
   });
 
   it('mark no account or cohort as demo unless the demo seed says so, and roll the marker back keeping the accounts', async () => {
     await k.migrate.latest({ migrationSource: bundledMigrations });
-    const [cohortId] = (await k('cohorts').insert({ name: 'Class of 2030' }).returning('id')).map((r) => (r as { id: number }).id);
-    const [userId] = (await k('users').insert({ email: 'real@example.org', name: 'Real Director', role: 'director', cohort_id: cohortId }).returning('id')).map((r) => (r as { id: number }).id);
-    await k('sessions').insert({ id: 's1', user_id: userId, created_at: '2026-12-03T00:00:00Z', expires_at: '2026-12-04T00:00:00Z' });
+    const [cohortId] = (await k('cohorts').insert({ name: 'Class of 2030' }).returning('id')).map(
+      (r) => (r as { id: number }).id,
+    );
+    const [userId] = (
+      await k('users')
+        .insert({ email: 'real@example.org', name: 'Real Director', role: 'director', cohort_id: cohortId })
+        .returning('id')
+    ).map((r) => (r as { id: number }).id);
+    await k('sessions').insert({
+      id: 's1',
+      user_id: userId,
+      created_at: '2026-12-03T00:00:00Z',
+      expires_at: '2026-12-04T00:00:00Z',
+    });
     expect(await k('users').first('demo')).toMatchObject({ demo: 0 });
     expect(await k('cohorts').first('demo')).toMatchObject({ demo: 0 });
     await k.migrate.down({ migrationSource: bundledMigrations });
@@ -75,12 +106,20 @@ describe('the migrations', () => {
 
   it('are recorded under the same names by the Knex CLI and by the server', async () => {
     const file = join(dir, 'cli.sqlite');
-    execFileSync(process.execPath, [TSX, 'node_modules/knex/bin/cli.js', 'migrate:latest', '--knexfile', 'knexfile.ts'], {
-      cwd: ROOT, env: { ...process.env, DB_FILE: file }, stdio: 'pipe',
-    });
+    execFileSync(
+      process.execPath,
+      [TSX, 'node_modules/knex/bin/cli.js', 'migrate:latest', '--knexfile', 'knexfile.ts'],
+      {
+        cwd: ROOT,
+        env: { ...process.env, DB_FILE: file },
+        stdio: 'pipe',
+      },
+    );
     const cli = knexFactory(sqliteOptions(file));
     try {
-      const ran = ((await cli('knex_migrations').select('name').orderBy('id')) as { name: string }[]).map((r) => r.name);
+      const ran = ((await cli('knex_migrations').select('name').orderBy('id')) as { name: string }[]).map(
+        (r) => r.name,
+      );
       const bundled = (await bundledMigrations.getMigrations([])).map((m) => bundledMigrations.getMigrationName(m));
       expect(ran).toEqual(bundled);
       const [, pending] = (await cli.migrate.list({ migrationSource: bundledMigrations })) as [unknown[], unknown[]];

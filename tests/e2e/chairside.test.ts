@@ -26,8 +26,13 @@ afterAll(async () => {
 class Driver {
   taps = 0;
   constructor(readonly page: Page) {}
-  step(): Locator { return this.page.getByTestId('step'); }
-  async tap(l: Locator): Promise<void> { await l.click(); this.taps++; }
+  step(): Locator {
+    return this.page.getByTestId('step');
+  }
+  async tap(l: Locator): Promise<void> {
+    await l.click();
+    this.taps++;
+  }
   async card(kind: string): Promise<void> {
     await this.page.locator(`[data-testid="step"][data-card="${kind}"]`).waitFor({ timeout: 20_000 });
   }
@@ -71,48 +76,65 @@ async function setUpDistal36(page: Page): Promise<void> {
 /** A whole canal by taps, with the chairside-flow defaults; optionally one short cone redone. */
 async function recordCanal(d: Driver, opts: { shortCone: boolean; check?: () => Promise<void> }): Promise<void> {
   const check = opts.check ?? (async () => {});
-  await d.answer('seat', 'Seats and holds'); await check();
-  await d.ruler('taper', 19.5); await check();
+  await d.answer('seat', 'Seats and holds');
+  await check();
+  await d.ruler('taper', 19.5);
+  await check();
   await d.answer('radiograph', 'Taken');
-  await d.answer('rinse', 'Done'); await check();
-  await d.ruler('dry', 20.5); await check();
+  await d.answer('rinse', 'Done');
+  await check();
+  await d.ruler('dry', 20.5);
+  await check();
   await d.ruler('master', 20.5, 'ruler-master');
-  await d.answer('master', 'Reached'); await check();
+  await d.answer('master', 'Reached');
+  await check();
   await d.answer('radiograph', 'Taken');
-  await d.answer('seal', 'Seated'); await check();
+  await d.answer('seal', 'Seated');
+  await check();
   const depths = [18.5, 16.5, 14.5, 12.5];
   for (const [i, depth] of depths.entries()) {
-    await d.ruler('spreader', depth); if (i === 0) await check();
+    await d.ruler('spreader', depth);
+    if (i === 0) await check();
     if (opts.shortCone && i === 1) {
       await d.answer('accessory', 'Stopped short');
-      await d.answer('remove', 'Removed'); await check();
+      await d.answer('remove', 'Removed');
+      await check();
       await d.card('accessory');
       await expect(d.step().locator('#step-title').textContent()).resolves.toContain('Place another cone at 16.5 mm');
     }
-    await d.answer('accessory', 'Reached'); if (i === 0) await check();
+    await d.answer('accessory', 'Reached');
+    if (i === 0) await check();
   }
   await d.card('spreader');
   await d.page.getByTestId('compaction-complete').waitFor();
   await d.answer('spreader', 'Finish compaction');
-  await d.answer('fill', 'Radiograph taken'); await check();
+  await d.answer('fill', 'Radiograph taken');
+  await check();
   await d.tap(d.step().getByRole('button', { name: 'Flush' }));
   await d.tap(d.step().getByRole('button', { name: 'None' }));
-  await d.answer('sear', 'At the orifice'); await check();
+  await d.answer('sear', 'At the orifice');
+  await check();
   await d.answer('compact', 'Done');
   await d.answer('clean', 'Done');
-  await d.card('done'); await check();
+  await d.card('done');
+  await check();
 }
 
 /** Interactive elements smaller than 56 × 56 px (64 for ruler buttons and one-tap answers). */
 async function undersized(page: Page): Promise<string[]> {
   return page.evaluate(() => {
     const out: string[] = [];
-    for (const el of document.querySelectorAll<HTMLElement>('button, a[href], input, select, textarea, [role="button"], [tabindex]')) {
+    for (const el of document.querySelectorAll<HTMLElement>(
+      'button, a[href], input, select, textarea, [role="button"], [tabindex]',
+    )) {
       const r = el.getBoundingClientRect();
       if (r.width === 0 && r.height === 0) continue; // not rendered
       const big = el.closest('[data-testid^="ruler"]') || el.className.includes('min-h-16');
       const min = big ? 64 : 56;
-      if (r.width < min - 0.5 || r.height < min - 0.5) out.push(`${el.tagName} "${el.textContent?.trim().slice(0, 30)}" ${Math.round(r.width)}×${Math.round(r.height)} < ${min}`);
+      if (r.width < min - 0.5 || r.height < min - 0.5)
+        out.push(
+          `${el.tagName} "${el.textContent?.trim().slice(0, 30)}" ${Math.round(r.width)}×${Math.round(r.height)} < ${min}`,
+        );
     }
     return out;
   });
@@ -120,7 +142,9 @@ async function undersized(page: Page): Promise<string[]> {
 
 async function seriousViolations(page: Page): Promise<string[]> {
   const result = await new AxeBuilder({ page }).analyze();
-  return result.violations.filter((v) => v.impact === 'serious' || v.impact === 'critical').map((v) => `${v.id}: ${v.help} (${v.nodes.map((n) => n.target.join(' ')).join(', ')})`);
+  return result.violations
+    .filter((v) => v.impact === 'serious' || v.impact === 'critical')
+    .map((v) => `${v.id}: ${v.help} (${v.nodes.map((n) => n.target.join(' ')).join(', ')})`);
 }
 
 /** The demo banner is there, and adds no more than one slim line to the top bar. */
@@ -140,11 +164,17 @@ describe('the chairside app shell', () => {
     try {
       const page = await context.newPage();
       await page.goto(`${server.baseUrl}/chairside`);
-      await page.evaluate(async () => { await navigator.serviceWorker.ready; });
+      await page.evaluate(async () => {
+        await navigator.serviceWorker.ready;
+      });
       const cdp = await context.newCDPSession(page);
-      const { installabilityErrors } = (await cdp.send('Page.getInstallabilityErrors')) as { installabilityErrors: unknown[] };
+      const { installabilityErrors } = (await cdp.send('Page.getInstallabilityErrors')) as {
+        installabilityErrors: unknown[];
+      };
       expect(installabilityErrors).toEqual([]);
-      const manifest = (await (await page.request.get(`${server.baseUrl}/manifest.webmanifest`)).json()) as { icons: { src: string }[] };
+      const manifest = (await (await page.request.get(`${server.baseUrl}/manifest.webmanifest`)).json()) as {
+        icons: { src: string }[];
+      };
       for (const icon of manifest.icons) expect((await page.request.get(server.baseUrl + icon.src)).status()).toBe(200);
       await page.reload();
       await context.setOffline(true);
@@ -163,7 +193,9 @@ describe('the chairside island, offline first', () => {
     const page = await context.newPage();
     await openChairside(page, DEMO.mira);
     // First visit installs the worker; the next load is controlled by it (registerType "prompt").
-    await page.evaluate(async () => { await navigator.serviceWorker.ready; });
+    await page.evaluate(async () => {
+      await navigator.serviceWorker.ready;
+    });
     await page.reload();
     await page.getByTestId('new-case').waitFor();
     expect(await page.evaluate(() => navigator.serviceWorker.controller !== null)).toBe(true);
@@ -195,7 +227,7 @@ describe('the chairside island, offline first', () => {
     await context.close();
   });
 
-  it('never sends one user\'s unsent events under another user\'s session on the same browser', async () => {
+  it("never sends one user's unsent events under another user's session on the same browser", async () => {
     const context = await browser.newContext({ viewport: { width: 1024, height: 768 } });
     const page = await context.newPage();
     // Mira records while the sync cannot get through.
@@ -219,7 +251,9 @@ describe('the chairside island, offline first', () => {
     await page.unroute('**/api/sync');
 
     const sent: string[] = [];
-    page.on('request', (r) => { if (r.url().endsWith('/api/sync')) sent.push(r.postData() ?? ''); });
+    page.on('request', (r) => {
+      if (r.url().endsWith('/api/sync')) sent.push(r.postData() ?? '');
+    });
     await openChairside(page, DEMO.tomas);
     await page.getByTestId('new-case').click();
     await page.getByRole('button', { name: 'Training block' }).click();
@@ -255,7 +289,11 @@ function readQueuedIds(): Promise<string[]> {
     open.onsuccess = () => {
       const req = open.result.transaction('events').objectStore('events').getAll();
       req.onsuccess = () => {
-        resolve((req.result as { state: string; event: { id: string } }[]).filter((r) => r.state === 'queued').map((r) => r.event.id));
+        resolve(
+          (req.result as { state: string; event: { id: string } }[])
+            .filter((r) => r.state === 'queued')
+            .map((r) => r.event.id),
+        );
         open.result.close();
       };
     };
@@ -287,7 +325,19 @@ describe('the chairside island for gloved hands', () => {
       const w = window as unknown as { wakeRequests: number; lastSentinel?: { released: boolean } };
       w.wakeRequests = 0;
       Object.defineProperty(navigator, 'wakeLock', {
-        value: { request: async () => { w.wakeRequests++; const s = { released: false, release: async () => { s.released = true; } }; w.lastSentinel = s; return s; } },
+        value: {
+          request: async () => {
+            w.wakeRequests++;
+            const s = {
+              released: false,
+              release: async () => {
+                s.released = true;
+              },
+            };
+            w.lastSentinel = s;
+            return s;
+          },
+        },
       });
     });
     const page = await context.newPage();
@@ -303,7 +353,7 @@ describe('the chairside island for gloved hands', () => {
     await context.close();
   });
 
-  it('withdraws an answer from the canal\'s timeline and asks that step again', async () => {
+  it("withdraws an answer from the canal's timeline and asks that step again", async () => {
     const { context, page } = await newSession(1024, 768);
     await setUpDistal36(page);
     const d = new Driver(page);
@@ -315,7 +365,9 @@ describe('the chairside island for gloved hands', () => {
     const row = page.getByTestId('timeline').getByRole('listitem').filter({ hasText: 'Taper check' });
     await row.getByRole('button', { name: 'Withdraw' }).click();
     await d.card('taper');
-    await expect(page.getByTestId('timeline').getByRole('listitem').filter({ hasText: 'Taper check' }).count()).resolves.toBe(0);
+    await expect(
+      page.getByTestId('timeline').getByRole('listitem').filter({ hasText: 'Taper check' }).count(),
+    ).resolves.toBe(0);
     expect(await undersized(page)).toEqual([]);
     expect(await seriousViolations(page)).toEqual([]);
     await d.ruler('taper', 19);
@@ -330,12 +382,16 @@ describe('the chairside island for gloved hands', () => {
     await d.answer('seat', 'Seats and holds');
     await d.card('taper');
     // Set up at 20.5 mm: the taper ruler expects CWL − 1 = 19.5.
-    await expect(d.step().getByTestId('ruler').locator('button[data-mm="19.5"]').getAttribute('aria-label')).resolves.toContain('expected');
+    await expect(
+      d.step().getByTestId('ruler').locator('button[data-mm="19.5"]').getAttribute('aria-label'),
+    ).resolves.toContain('expected');
     await page.getByRole('button', { name: 'Correct the CWL (20.5 mm)' }).click();
     await page.getByRole('button', { name: 'apex locator' }).click();
     await page.getByTestId('cwl-ruler').locator('button[data-mm="21.5"]').click();
     await page.getByRole('button', { name: 'Correct the CWL (21.5 mm)' }).waitFor();
-    await expect(d.step().getByTestId('ruler').locator('button[data-mm="20.5"]').getAttribute('aria-label')).resolves.toContain('expected');
+    await expect(
+      d.step().getByTestId('ruler').locator('button[data-mm="20.5"]').getAttribute('aria-label'),
+    ).resolves.toContain('expected');
     await page.getByRole('button', { name: /^Timeline/ }).click();
     await expect(page.getByTestId('timeline').textContent()).resolves.toContain('CWL corrected to 21.5');
     expect(await undersized(page)).toEqual([]);
@@ -352,8 +408,11 @@ describe('the chairside island for gloved hands', () => {
     // Meanwhile the case is signed off on the server: it takes no more answers.
     const k = knexFactory(sqliteOptions(server.dbFile));
     try {
-      const row = (await k('cases').join('users', 'users.id', 'cases.student_id').where('users.email', DEMO.priya)
-        .orderBy('cases.opened_at', 'desc').first('cases.id')) as { id: string };
+      const row = (await k('cases')
+        .join('users', 'users.id', 'cases.student_id')
+        .where('users.email', DEMO.priya)
+        .orderBy('cases.opened_at', 'desc')
+        .first('cases.id')) as { id: string };
       await k('cases').where({ id: row.id }).update({ review_status: 'approved' });
     } finally {
       await k.destroy();
@@ -371,7 +430,7 @@ describe('the chairside island for gloved hands', () => {
     await context.close();
   });
 
-  it('opens a patient\'s tooth by chart number, the only typed entry', async () => {
+  it("opens a patient's tooth by chart number, the only typed entry", async () => {
     const { context, page } = await newSession(768, 1024);
     await page.getByTestId('new-case').click();
     await page.getByRole('button', { name: 'Patient' }).click();
@@ -395,7 +454,12 @@ describe('the chairside island for gloved hands', () => {
     await context.close();
   });
 
-  it.each([[768, 1024], [1024, 768], [1280, 800], [800, 1280]])(
+  it.each([
+    [768, 1024],
+    [1024, 768],
+    [1280, 800],
+    [800, 1280],
+  ])(
     'keeps every control at least 56 px, passes axe, and lays out at %i × %i',
     async (width, height) => {
       const { context, page } = await newSession(width, height);
@@ -412,7 +476,8 @@ describe('the chairside island for gloved hands', () => {
         shortCone: true,
         check: async () => {
           await check();
-          if (shot++ % 4 === 0) await page.screenshot({ path: `test-results/chairside-${width}x${height}-${shot}.png` });
+          if (shot++ % 4 === 0)
+            await page.screenshot({ path: `test-results/chairside-${width}x${height}-${shot}.png` });
         },
       });
       await page.getByRole('button', { name: 'Finish the tooth' }).click();

@@ -28,7 +28,9 @@ describe('a new version of the chairside', () => {
     const context = await browser.newContext({ viewport: { width: 1024, height: 768 } });
     const page = await context.newPage();
     await page.goto(`${server.baseUrl}/chairside`);
-    await page.evaluate(async () => { await navigator.serviceWorker.ready; });
+    await page.evaluate(async () => {
+      await navigator.serviceWorker.ready;
+    });
     await page.reload();
     expect(await page.evaluate(() => navigator.serviceWorker.controller !== null)).toBe(true);
     const prompt = page.getByRole('status').filter({ hasText: 'A new version of Coneline is ready.' });
@@ -36,12 +38,16 @@ describe('a new version of the chairside', () => {
 
     // A new release: the worker script changes on the server.
     appendFileSync(join(BUILD, 'client/sw.js'), '\n// release 2\n');
-    await page.evaluate(async () => { await (await navigator.serviceWorker.getRegistration())?.update(); });
+    await page.evaluate(async () => {
+      await (await navigator.serviceWorker.getRegistration())?.update();
+    });
     await prompt.waitFor({ timeout: 20_000 });
 
     await Promise.all([page.waitForEvent('load'), prompt.getByRole('button', { name: 'Reload' }).click()]);
     await page.getByTestId('safety-line').waitFor();
-    await expect(page.getByRole('status').filter({ hasText: 'A new version of Coneline is ready.' }).count()).resolves.toBe(0);
+    await expect(
+      page.getByRole('status').filter({ hasText: 'A new version of Coneline is ready.' }).count(),
+    ).resolves.toBe(0);
     const waiting = await page.evaluate(async () => (await navigator.serviceWorker.getRegistration())?.waiting ?? null);
     expect(waiting).toBeNull();
     await context.close();

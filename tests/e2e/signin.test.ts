@@ -17,7 +17,9 @@ afterAll(async () => {
 
 async function seriousViolations(page: Page): Promise<string[]> {
   const result = await new AxeBuilder({ page }).analyze();
-  return result.violations.filter((v) => v.impact === 'serious' || v.impact === 'critical').map((v) => `${v.id}: ${v.help}`);
+  return result.violations
+    .filter((v) => v.impact === 'serious' || v.impact === 'critical')
+    .map((v) => `${v.id}: ${v.help}`);
 }
 
 describe('signing in in Chromium', () => {
@@ -64,11 +66,14 @@ describe('signing in in Chromium', () => {
     expect(new URL(page.url()).pathname).toBe('/signin');
     await page.getByLabel('E-mail').fill(DEMO.ingrid);
     await page.getByLabel('Password').fill(DEMO.password);
-    await Promise.all([page.waitForURL((u) => u.pathname === '/admin'), page.getByRole('button', { name: 'Sign in' }).click()]);
+    await Promise.all([
+      page.waitForURL((u) => u.pathname === '/admin'),
+      page.getByRole('button', { name: 'Sign in' }).click(),
+    ]);
     await context.close();
   });
 
-  it('lets an attending open a student\'s case from the queue and read each canal', async () => {
+  it("lets an attending open a student's case from the queue and read each canal", async () => {
     const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
     const page = await context.newPage();
     await signIn(page, server.baseUrl, DEMO.helen, DEMO.password);
@@ -86,7 +91,10 @@ describe('signing in in Chromium', () => {
     const page = await context.newPage();
     await signIn(page, server.baseUrl, DEMO.tomas, DEMO.password);
     await page.getByRole('link', { name: 'Sign out' }).click();
-    await Promise.all([page.waitForURL((u) => u.pathname === '/signin'), page.getByRole('button', { name: 'Sign out of this device' }).click()]);
+    await Promise.all([
+      page.waitForURL((u) => u.pathname === '/signin'),
+      page.getByRole('button', { name: 'Sign out of this device' }).click(),
+    ]);
     await expect(page.getByRole('status').textContent()).resolves.toContain('You are signed out');
     await page.goto(`${server.baseUrl}/`);
     expect(new URL(page.url()).pathname).toBe('/signin');

@@ -6,8 +6,14 @@ import { chromium, type Browser, type BrowserContext, type Page } from 'playwrig
 
 export const CHROMIUM_PATH = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
 const ARGS = [
-  '--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--disable-background-networking',
-  '--disable-component-update', '--disable-sync', '--no-first-run',
+  '--headless',
+  '--no-sandbox',
+  '--disable-gpu',
+  '--disable-quic',
+  '--disable-background-networking',
+  '--disable-component-update',
+  '--disable-sync',
+  '--no-first-run',
 ];
 
 export function launchBrowser(): Promise<Browser> {
@@ -15,15 +21,31 @@ export function launchBrowser(): Promise<Browser> {
 }
 
 /** A persistent context (a fresh user-data dir): needed where a test checks installability. */
-export function launchPersistent(options: Parameters<typeof chromium.launchPersistentContext>[1] = {}): Promise<BrowserContext> {
+export function launchPersistent(
+  options: Parameters<typeof chromium.launchPersistentContext>[1] = {},
+): Promise<BrowserContext> {
   const dir = mkdtempSync(join(tmpdir(), 'coneline-chromium-'));
-  return chromium.launchPersistentContext(dir, { executablePath: CHROMIUM_PATH, args: ARGS, headless: true, ...options });
+  return chromium.launchPersistentContext(dir, {
+    executablePath: CHROMIUM_PATH,
+    args: ARGS,
+    headless: true,
+    ...options,
+  });
 }
 
 /** Fills the sign-in form and waits for the page it leads to. */
-export async function signIn(page: Page, baseUrl: string, email: string, password: string, callbackUrl = '/'): Promise<void> {
+export async function signIn(
+  page: Page,
+  baseUrl: string,
+  email: string,
+  password: string,
+  callbackUrl = '/',
+): Promise<void> {
   await page.goto(`${baseUrl}/signin?callbackUrl=${encodeURIComponent(callbackUrl)}`);
   await page.getByLabel('E-mail').fill(email);
   await page.getByLabel('Password').fill(password);
-  await Promise.all([page.waitForURL((u) => !u.pathname.startsWith('/api/auth')), page.getByRole('button', { name: 'Sign in' }).click()]);
+  await Promise.all([
+    page.waitForURL((u) => !u.pathname.startsWith('/api/auth')),
+    page.getByRole('button', { name: 'Sign in' }).click(),
+  ]);
 }

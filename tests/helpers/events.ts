@@ -16,18 +16,44 @@ export class EventWriter {
 
   add(type: string, data: Record<string, unknown> = {}, canalId?: string): WireEvent {
     this.t += 1000;
-    const e: WireEvent = { id: randomUUID(), caseId: this.caseId, ...(canalId ? { canalId } : {}), type, at: new Date(this.t).toISOString(), data };
+    const e: WireEvent = {
+      id: randomUUID(),
+      caseId: this.caseId,
+      ...(canalId ? { canalId } : {}),
+      type,
+      at: new Date(this.t).toISOString(),
+      data,
+    };
     this.events.push(e);
     return e;
   }
 
   open(setting: 'block' | 'extracted' | 'patient' = 'extracted', tooth = 46): WireEvent {
-    return this.add('case.opened', setting === 'block' ? { setting } : setting === 'patient' ? { setting, tooth, chartRef: 'TST-0001' } : { setting, tooth });
+    return this.add(
+      'case.opened',
+      setting === 'block'
+        ? { setting }
+        : setting === 'patient'
+          ? { setting, tooth, chartRef: 'TST-0001' }
+          : { setting, tooth },
+    );
   }
 
   canal(name = 'D', cwlMm = 21): string {
     const canalId = randomUUID();
-    this.add('canal.added', { name, referencePoint: 'distobuccal cusp tip', cwlMm, mafSize: '35', preparation: 'step-back', spreader: 'MF', accessorySize: 'MF' }, canalId);
+    this.add(
+      'canal.added',
+      {
+        name,
+        referencePoint: 'distobuccal cusp tip',
+        cwlMm,
+        mafSize: '35',
+        preparation: 'step-back',
+        spreader: 'MF',
+        accessorySize: 'MF',
+      },
+      canalId,
+    );
     return canalId;
   }
 

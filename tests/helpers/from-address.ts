@@ -18,7 +18,14 @@ export function fromAddress(
   const u = new URL(url);
   return new Promise((resolve, reject) => {
     const req = request(
-      { host: u.hostname, port: u.port, path: u.pathname + u.search, method: init.method ?? 'GET', headers: init.headers, localAddress },
+      {
+        host: u.hostname,
+        port: u.port,
+        path: u.pathname + u.search,
+        method: init.method ?? 'GET',
+        headers: init.headers,
+        localAddress,
+      },
       (res) => {
         let text = '';
         res.on('data', (d: Buffer) => (text += d.toString()));

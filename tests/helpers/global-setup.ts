@@ -6,10 +6,16 @@ import { ENTRY, ROOT, TEMPLATE_DB, TSX } from './paths';
 
 export default function setup(): () => void {
   if (!existsSync(ENTRY)) {
-    execFileSync(process.execPath, [resolve(ROOT, 'node_modules/astro/astro.js'), 'build'], { cwd: ROOT, stdio: 'inherit' });
+    execFileSync(process.execPath, [resolve(ROOT, 'node_modules/astro/astro.js'), 'build'], {
+      cwd: ROOT,
+      stdio: 'inherit',
+    });
   }
   for (const f of [TEMPLATE_DB, `${TEMPLATE_DB}-wal`, `${TEMPLATE_DB}-shm`]) rmSync(f, { force: true });
-  execFileSync(process.execPath, [TSX, resolve(ROOT, 'scripts/lib/prepare-cli.ts'), TEMPLATE_DB, '--seed'], { cwd: ROOT, stdio: 'inherit' });
+  execFileSync(process.execPath, [TSX, resolve(ROOT, 'scripts/lib/prepare-cli.ts'), TEMPLATE_DB, '--seed'], {
+    cwd: ROOT,
+    stdio: 'inherit',
+  });
   process.env.CONELINE_TEMPLATE_DB = TEMPLATE_DB;
   return () => {
     for (const f of [TEMPLATE_DB, `${TEMPLATE_DB}-wal`, `${TEMPLATE_DB}-shm`]) rmSync(f, { force: true });

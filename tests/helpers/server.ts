@@ -6,6 +6,8 @@ export type { TestServer };
 export { freePort } from '../../scripts/lib/server-process';
 
 /** `outDir`: another build folder (e.g. a copy of dist/ a test changes). */
-export function startServer(opts: { env?: Record<string, string>; emptyDb?: boolean; outDir?: string } = {}): Promise<TestServer> {
+export function startServer(
+  opts: { env?: Record<string, string>; emptyDb?: boolean; outDir?: string } = {},
+): Promise<TestServer> {
   return start({ env: opts.env, outDir: opts.outDir, templateDb: opts.emptyDb ? undefined : TEMPLATE_DB });
 }

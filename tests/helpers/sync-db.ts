@@ -25,7 +25,9 @@ export async function syncDb(): Promise<SyncDb> {
   const ana = await id('ana@test.example');
   const ben = await id('ben@test.example');
   return {
-    k, ana, ben,
+    k,
+    ana,
+    ben,
     async close() {
       await k.destroy();
       rmSync(dir, { recursive: true, force: true });

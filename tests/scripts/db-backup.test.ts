@@ -41,7 +41,8 @@ function query<T>(file: string, sql: string): T {
 const committed = (file: string) => query<number | null>(file, 'select max(n) from load_rows') ?? 0;
 const integrity = (file: string) => query<string>(file, 'pragma integrity_check');
 /** Rows 1..upTo are all there when the count of rows numbered up to it equals it. */
-const hasRowsUpTo = (file: string, upTo: number) => query<number>(file, `select count(*) from load_rows where n <= ${upTo}`) === upTo;
+const hasRowsUpTo = (file: string, upTo: number) =>
+  query<number>(file, `select count(*) from load_rows where n <= ${upTo}`) === upTo;
 
 /**
  * A writer process as the server is one: WAL, synchronous=FULL, one commit per row, numbered
@@ -162,10 +163,14 @@ describe('npm run db:restore refuses', () => {
     try {
       // A sign-in attempt makes the server open its database, and so take the lock.
       const csrf = await fetch(`${server.baseUrl}/api/auth/csrf`);
-      const cookie = csrf.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
+      const cookie = csrf.headers
+        .getSetCookie()
+        .map((c) => c.split(';')[0])
+        .join('; ');
       const { csrfToken } = (await csrf.json()) as { csrfToken: string };
       await fetch(`${server.baseUrl}/api/auth/callback/credentials`, {
-        method: 'POST', redirect: 'manual',
+        method: 'POST',
+        redirect: 'manual',
         headers: { 'Content-Type': 'application/x-www-form-urlencoded', Origin: server.baseUrl, Cookie: cookie },
         body: new URLSearchParams({ csrfToken, email: 'nobody@example.org', password: 'not-a-real-password' }),
       });
@@ -180,18 +185,26 @@ describe('npm run db:restore refuses', () => {
 
   it.each([
     ['a file that is not a database', () => 'not a database at all\n'.repeat(200), 'is not a SQLite database'],
-    ['a SQLite database that is not Coneline', () => {
-      const f = join(dir, 'other.sqlite');
-      const db = new Database(f);
-      db.exec('create table notes (x text)');
-      db.close();
-      return readFileSync(f);
-    }, 'is not a Coneline database (it has no knex_migrations table)'],
-    ['a damaged Coneline database', () => {
-      const bytes = readFileSync(run('scripts/db-backup.ts').out.trim());
-      bytes.fill(0x5a, bytes.length - 3 * 4096, bytes.length - 4096); // two pages of the row table
-      return bytes;
-    }, 'fails its integrity check'],
+    [
+      'a SQLite database that is not Coneline',
+      () => {
+        const f = join(dir, 'other.sqlite');
+        const db = new Database(f);
+        db.exec('create table notes (x text)');
+        db.close();
+        return readFileSync(f);
+      },
+      'is not a Coneline database (it has no knex_migrations table)',
+    ],
+    [
+      'a damaged Coneline database',
+      () => {
+        const bytes = readFileSync(run('scripts/db-backup.ts').out.trim());
+        bytes.fill(0x5a, bytes.length - 3 * 4096, bytes.length - 4096); // two pages of the row table
+        return bytes;
+      },
+      'fails its integrity check',
+    ],
   ])('%s, leaving the database as it was', (_label, contents, message) => {
     const bad = join(dir, `bad-${Math.random().toString(36).slice(2)}.sqlite`);
     writeFileSync(bad, contents());

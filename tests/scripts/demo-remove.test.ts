@@ -18,7 +18,11 @@ beforeEach(() => {
 afterEach(() => rmSync(dir, { recursive: true, force: true }));
 
 function demoRemove(file = dbFile) {
-  const r = spawnSync(process.execPath, [TSX, 'scripts/demo-remove.ts'], { cwd: ROOT, env: { ...process.env, DB_FILE: file }, encoding: 'utf8' });
+  const r = spawnSync(process.execPath, [TSX, 'scripts/demo-remove.ts'], {
+    cwd: ROOT,
+    env: { ...process.env, DB_FILE: file },
+    encoding: 'utf8',
+  });
   return { code: r.status, out: r.stdout, err: r.stderr };
 }
 
@@ -37,7 +41,11 @@ const total = async (k: Knex, table: string) => Number(((await k(table).count({ 
 /** A real student in the demo cohort, assigned to a demo attending, with a case of their own. */
 async function addRealStudent(k: Knex): Promise<{ studentId: number; caseId: string }> {
   const cohort = (await k('cohorts').where({ demo: true }).first('id')) as { id: number };
-  const studentId = idOf(await k('users').insert({ email: 'real.student@example.org', name: 'Real Student', role: 'student', cohort_id: cohort.id }).returning('id'));
+  const studentId = idOf(
+    await k('users')
+      .insert({ email: 'real.student@example.org', name: 'Real Student', role: 'student', cohort_id: cohort.id })
+      .returning('id'),
+  );
   const helen = (await k('users').where({ email: DEMO.helen }).first('id')) as { id: number };
   await k('assignments').insert({ attending_id: helen.id, student_id: studentId });
   const caseId = '00000000-0000-4000-8000-00000000c0de';
@@ -56,12 +64,15 @@ describe('npm run demo:remove', () => {
     const r = demoRemove();
     expect(r.err).toBe('');
     expect(r.code).toBe(0);
-    expect(r.out).toContain(`removed the demo clinic from ${dbFile}: 6 accounts, 1 cohort, ${counts.cases} cases, ${counts.canals} canals, ${counts.events} events`);
+    expect(r.out).toContain(
+      `removed the demo clinic from ${dbFile}: 6 accounts, 1 cohort, ${counts.cases} cases, ${counts.canals} canals, ${counts.events} events`,
+    );
     expect(r.out).toContain('4 assignments');
     expect(r.out).toContain('Kept 1 audit line that named a demo account as actor');
     await withDb(async (k) => {
       expect(await k('users').pluck('email')).toEqual(['head@example.org']);
-      for (const table of ['cohorts', 'cases', 'canals', 'events', 'findings', 'signoffs', 'assignments']) expect(await total(k, table), table).toBe(0);
+      for (const table of ['cohorts', 'cases', 'canals', 'events', 'findings', 'signoffs', 'assignments'])
+        expect(await total(k, table), table).toBe(0);
       expect(await k('audit_log').where({ action: 'user.created' }).pluck('actor_id')).toEqual([null]);
       expect(await k('audit_log').where({ action: 'demo.removed' }).count({ n: '*' }).first()).toEqual({ n: 1 });
     });
@@ -73,7 +84,9 @@ describe('npm run demo:remove', () => {
     expect(again.code).toBe(0);
     expect(again.out).toContain('no demo clinic');
     expect(again.out).toContain('nothing removed');
-    await withDb(async (k) => expect(await k('audit_log').where({ action: 'demo.removed' }).count({ n: '*' }).first()).toEqual({ n: 1 }));
+    await withDb(async (k) =>
+      expect(await k('audit_log').where({ action: 'demo.removed' }).count({ n: '*' }).first()).toEqual({ n: 1 }),
+    );
   });
 
   it('keeps a real student, their case, and the demo cohort they belong to, but not their tie to a demo attending', async () => {
@@ -87,17 +100,25 @@ describe('npm run demo:remove', () => {
     });
   });
 
-  it('refuses, removing nothing, when a demo attending signed off a real student\'s case', async () => {
+  it("refuses, removing nothing, when a demo attending signed off a real student's case", async () => {
     await withDb(async (k) => {
       const real = await addRealStudent(k);
       const samuel = (await k('users').where({ email: DEMO.samuel }).first('id')) as { id: number };
-      await k('signoffs').insert({ case_id: real.caseId, checkpoint: 'final', decision: 'approved', attending_id: samuel.id, created_at: '2026-12-03T09:00:00Z' });
+      await k('signoffs').insert({
+        case_id: real.caseId,
+        checkpoint: 'final',
+        decision: 'approved',
+        attending_id: samuel.id,
+        created_at: '2026-12-03T09:00:00Z',
+      });
     });
     const r = demoRemove();
     expect(r.code).toBe(1);
     expect(r.err).toContain("1 sign-off by a demo account in real students' cases");
     expect(r.err).toContain('Nothing was removed');
-    await withDb(async (k) => expect(await k('users').where({ demo: true }).count({ n: '*' }).first()).toEqual({ n: 6 }));
+    await withDb(async (k) =>
+      expect(await k('users').where({ demo: true }).count({ n: '*' }).first()).toEqual({ n: 6 }),
+    );
   });
 
   it('says there is nothing to remove when the database does not exist, without making one', () => {

@@ -23,16 +23,34 @@ afterEach(async () => {
 
 /** `npm run serve -- --no-build` (the tests' build is already there). */
 async function serve(env: Record<string, string>): Promise<ScriptRun> {
-  running = await runScript(['--import', 'tsx', 'scripts/serve.ts', '--no-build'], { DB_FILE: dbFile, DATA_DIR: dir, ...env });
+  running = await runScript(['--import', 'tsx', 'scripts/serve.ts', '--no-build'], {
+    DB_FILE: dbFile,
+    DATA_DIR: dir,
+    ...env,
+  });
   return running;
 }
 
 function userAdd(...args: string[]): void {
-  const r = spawnSync(process.execPath, [TSX, 'scripts/user-add.ts', ...args], { cwd: ROOT, env: { ...process.env, DB_FILE: dbFile }, encoding: 'utf8' });
+  const r = spawnSync(process.execPath, [TSX, 'scripts/user-add.ts', ...args], {
+    cwd: ROOT,
+    env: { ...process.env, DB_FILE: dbFile },
+    encoding: 'utf8',
+  });
   expect(r.stderr).toBe('');
 }
 
-const addDirector = () => userAdd('--email', 'head@school.example', '--name', 'Head of Endodontics', '--role', 'director', '--password', 'a-real-directors-pass');
+const addDirector = () =>
+  userAdd(
+    '--email',
+    'head@school.example',
+    '--name',
+    'Head of Endodontics',
+    '--role',
+    'director',
+    '--password',
+    'a-real-directors-pass',
+  );
 
 describe('npm run serve', () => {
   it('is registered in package.json', () => {
@@ -62,7 +80,8 @@ describe('npm run serve', () => {
     copyFileSync(TEMPLATE_DB, dbFile);
     const r = await serve({ HOST: '0.0.0.0' });
     expect(r.code).toBe(1);
-    for (const part of ['npm run demo:remove', 'AUTH_SECRET is not set', 'PUBLIC_HOST is not set']) expect(r.out).toContain(part);
+    for (const part of ['npm run demo:remove', 'AUTH_SECRET is not set', 'PUBLIC_HOST is not set'])
+      expect(r.out).toContain(part);
   });
 
   it('never seeds: an empty database stays empty, and serve says how to make the first director', async () => {

@@ -23,24 +23,35 @@ afterAll(async () => {
 });
 
 function scriptSrc(csp: string): string {
-  return csp.split(';').map((d) => d.trim()).find((d) => d.startsWith('script-src')) ?? '';
+  return (
+    csp
+      .split(';')
+      .map((d) => d.trim())
+      .find((d) => d.startsWith('script-src')) ?? ''
+  );
 }
 
 describe('headers on every response', () => {
   const asset = readdirSync(resolve(ROOT, 'dist/client/_astro')).find((f) => f.endsWith('.js'))!;
-  it.each(['/chairside', '/sw.js', `/_astro/${asset}`, '/favicon.svg', '/manifest.webmanifest', '/signin', '/api/me', '/no-such-page'])(
-    '%s carries a policy that forbids framing and inline scripts, and nosniff',
-    async (path) => {
-      const res = await fetch(server.baseUrl + path, { redirect: 'manual' });
-      const csp = res.headers.get('content-security-policy') ?? '';
-      expect(csp).toContain("frame-ancestors 'none'");
-      expect(scriptSrc(csp)).toMatch(/^script-src 'self'/);
-      expect(scriptSrc(csp)).not.toContain('unsafe-inline');
-      expect(res.headers.get('x-content-type-options')).toBe('nosniff');
-      expect(res.headers.get('referrer-policy')).toBe('same-origin');
-      expect(res.headers.get('strict-transport-security')).toBeNull();
-    },
-  );
+  it.each([
+    '/chairside',
+    '/sw.js',
+    `/_astro/${asset}`,
+    '/favicon.svg',
+    '/manifest.webmanifest',
+    '/signin',
+    '/api/me',
+    '/no-such-page',
+  ])('%s carries a policy that forbids framing and inline scripts, and nosniff', async (path) => {
+    const res = await fetch(server.baseUrl + path, { redirect: 'manual' });
+    const csp = res.headers.get('content-security-policy') ?? '';
+    expect(csp).toContain("frame-ancestors 'none'");
+    expect(scriptSrc(csp)).toMatch(/^script-src 'self'/);
+    expect(scriptSrc(csp)).not.toContain('unsafe-inline');
+    expect(res.headers.get('x-content-type-options')).toBe('nosniff');
+    expect(res.headers.get('referrer-policy')).toBe('same-origin');
+    expect(res.headers.get('strict-transport-security')).toBeNull();
+  });
 
   it('sends the chairside the hashes of its inline scripts as a header', async () => {
     const csp = (await fetch(`${server.baseUrl}/chairside`)).headers.get('content-security-policy') ?? '';
@@ -83,9 +94,14 @@ describe('time limits', () => {
 
 function startEntry(env: Record<string, string>): Promise<{ code: number | null; output: string }> {
   return new Promise((resolveRun) => {
-    execFile(process.execPath, [resolve(ROOT, 'scripts/server.mjs')], { env: { ...process.env, PORT: '0', ...env }, timeout: 20_000 }, (err, stdout, stderr) => {
-      resolveRun({ code: err ? ((err as { code?: number }).code ?? 1) : 0, output: stdout + stderr });
-    });
+    execFile(
+      process.execPath,
+      [resolve(ROOT, 'scripts/server.mjs')],
+      { env: { ...process.env, PORT: '0', ...env }, timeout: 20_000 },
+      (err, stdout, stderr) => {
+        resolveRun({ code: err ? ((err as { code?: number }).code ?? 1) : 0, output: stdout + stderr });
+      },
+    );
   });
 }
 
@@ -108,17 +124,23 @@ describe('starting', () => {
 
 function httpsHeaders(port: number, host: string, ca: string): Promise<Record<string, string | string[] | undefined>> {
   return new Promise((resolveHeaders, reject) => {
-    const req = httpsRequest({ host: '127.0.0.1', port, path: '/signin', servername: 'localhost', ca, headers: { Host: host } }, (res) => {
-      res.resume();
-      resolveHeaders(res.headers);
-    });
+    const req = httpsRequest(
+      { host: '127.0.0.1', port, path: '/signin', servername: 'localhost', ca, headers: { Host: host } },
+      (res) => {
+        res.resume();
+        resolveHeaders(res.headers);
+      },
+    );
     req.on('error', reject);
     req.end();
   });
 }
 
 /** GET /signin over plain HTTP with the given headers (fetch will not send our own Host). */
-function httpHeaders(baseUrl: string, headers: Record<string, string>): Promise<Record<string, string | string[] | undefined>> {
+function httpHeaders(
+  baseUrl: string,
+  headers: Record<string, string>,
+): Promise<Record<string, string | string[] | undefined>> {
   const url = new URL('/signin', baseUrl);
   return new Promise((resolveHeaders, reject) => {
     const req = httpRequest({ host: url.hostname, port: url.port, path: url.pathname, headers }, (res) => {
@@ -138,7 +160,9 @@ describe('HSTS', () => {
     try {
       const port = Number(new URL(tlsServer.baseUrl).port);
       const ca = readFileSync(env.SERVER_CERT_PATH!, 'utf8');
-      expect((await httpsHeaders(port, 'coneline.school.example', ca))['strict-transport-security']).toMatch(/max-age=/);
+      expect((await httpsHeaders(port, 'coneline.school.example', ca))['strict-transport-security']).toMatch(
+        /max-age=/,
+      );
       expect((await httpsHeaders(port, `localhost:${port}`, ca))['strict-transport-security']).toBeUndefined();
       expect((await httpsHeaders(port, `127.0.0.1:${port}`, ca))['strict-transport-security']).toBeUndefined();
     } finally {
@@ -150,7 +174,10 @@ describe('HSTS', () => {
   it('is not sent over plain HTTP, even for the public host and a forwarded https claim without a trusted proxy', async () => {
     const plain = await startServer({ env: { PUBLIC_HOST: 'coneline.school.example' } });
     try {
-      const headers = await httpHeaders(plain.baseUrl, { Host: 'coneline.school.example', 'X-Forwarded-Proto': 'https' });
+      const headers = await httpHeaders(plain.baseUrl, {
+        Host: 'coneline.school.example',
+        'X-Forwarded-Proto': 'https',
+      });
       expect(headers['strict-transport-security']).toBeUndefined();
     } finally {
       await plain.stop();
@@ -160,7 +187,10 @@ describe('HSTS', () => {
   it('is sent behind a trusted proxy that says the request came over HTTPS', async () => {
     const proxied = await startServer({ env: { PUBLIC_HOST: 'coneline.school.example', TRUST_PROXY: '1' } });
     try {
-      const headers = await httpHeaders(proxied.baseUrl, { Host: 'coneline.school.example', 'X-Forwarded-Proto': 'https' });
+      const headers = await httpHeaders(proxied.baseUrl, {
+        Host: 'coneline.school.example',
+        'X-Forwarded-Proto': 'https',
+      });
       expect(headers['strict-transport-security']).toMatch(/max-age=/);
     } finally {
       await proxied.stop();

@@ -19,7 +19,10 @@ afterEach(async () => {
 describe('npm start', () => {
   it('stays the one-command demo: seeds an empty database, says so, and points real installs at npm run serve', async () => {
     // --no-build: the tests' build is already there.
-    running = await runScript([TSX, 'scripts/start.ts', '--no-build'], { DB_FILE: join(dir, 'db.sqlite'), DATA_DIR: dir });
+    running = await runScript([TSX, 'scripts/start.ts', '--no-build'], {
+      DB_FILE: join(dir, 'db.sqlite'),
+      DATA_DIR: dir,
+    });
     expect(running.code).toBeNull();
     expect(running.out).toContain('Demo clinic seeded');
     expect(running.out).toContain('This is the Coneline demo');

@@ -15,7 +15,11 @@ afterAll(() => rmSync(dir, { recursive: true, force: true }));
 /** Runs user:add with standard input from a pipe (not a terminal), empty unless `input` is given. */
 function userAddWithInput(input: string, ...args: string[]) {
   const r = spawnSync(process.execPath, [TSX, 'scripts/user-add.ts', ...args], {
-    cwd: ROOT, env: { ...process.env, DB_FILE: dbFile }, encoding: 'utf8', input, timeout: 30_000,
+    cwd: ROOT,
+    env: { ...process.env, DB_FILE: dbFile },
+    encoding: 'utf8',
+    input,
+    timeout: 30_000,
   });
   return { code: r.status, out: r.stdout, err: r.stderr };
 }
@@ -32,19 +36,55 @@ async function canSignIn(email: string, password: string): Promise<boolean> {
 
 describe('npm run user:add', () => {
   it('creates the first director on a fresh database', () => {
-    const r = userAdd('--email', 'Head@Example.org', '--name', 'Ada Director', '--role', 'director', '--password', 'a-long-enough-pass');
+    const r = userAdd(
+      '--email',
+      'Head@Example.org',
+      '--name',
+      'Ada Director',
+      '--role',
+      'director',
+      '--password',
+      'a-long-enough-pass',
+    );
     expect(r.err).toBe('');
     expect(r.code).toBe(0);
     expect(r.out).toContain('Created director head@example.org');
   });
 
   it('creates a student in a cohort, assigned to an attending', async () => {
-    expect(userAdd('--email', 'att@example.org', '--name', 'Ann Attending', '--role', 'attending', '--password', 'another-long-pass').code).toBe(0);
-    const r = userAdd('--email', 'stu@example.org', '--name', 'Sam Student', '--role', 'student', '--password', 'student-long-pass', '--attending', 'att@example.org', '--cohort', 'Class of 2029');
+    expect(
+      userAdd(
+        '--email',
+        'att@example.org',
+        '--name',
+        'Ann Attending',
+        '--role',
+        'attending',
+        '--password',
+        'another-long-pass',
+      ).code,
+    ).toBe(0);
+    const r = userAdd(
+      '--email',
+      'stu@example.org',
+      '--name',
+      'Sam Student',
+      '--role',
+      'student',
+      '--password',
+      'student-long-pass',
+      '--attending',
+      'att@example.org',
+      '--cohort',
+      'Class of 2029',
+    );
     expect(r.code).toBe(0);
     const k = knexFactory(sqliteOptions(dbFile));
     try {
-      const row = await k('users').join('cohorts', 'cohorts.id', 'users.cohort_id').where('users.email', 'stu@example.org').first('cohorts.name');
+      const row = await k('users')
+        .join('cohorts', 'cohorts.id', 'users.cohort_id')
+        .where('users.email', 'stu@example.org')
+        .first('cohorts.name');
       expect(row.name).toBe('Class of 2029');
       const a = await k('assignments').count({ n: '*' }).first();
       expect(Number(a?.n)).toBe(1);
@@ -54,19 +94,46 @@ describe('npm run user:add', () => {
   });
 
   it('refuses a second account with the same e-mail, in any letter case', () => {
-    const r = userAdd('--email', 'head@example.org', '--name', 'Someone', '--role', 'student', '--password', 'a-long-enough-pass');
+    const r = userAdd(
+      '--email',
+      'head@example.org',
+      '--name',
+      'Someone',
+      '--role',
+      'student',
+      '--password',
+      'a-long-enough-pass',
+    );
     expect(r.code).toBe(1);
     expect(r.err).toContain('an account for head@example.org already exists');
   });
 
   it('refuses a password under 12 characters, saying why', () => {
-    const r = userAdd('--email', 'short@example.org', '--name', 'Shorty', '--role', 'student', '--password', 'elevenchars');
+    const r = userAdd(
+      '--email',
+      'short@example.org',
+      '--name',
+      'Shorty',
+      '--role',
+      'student',
+      '--password',
+      'elevenchars',
+    );
     expect(r.code).toBe(1);
     expect(r.err).toContain('Use at least 12 characters.');
   });
 
   it('refuses an unknown role and a missing field with a usage line, not a stack trace', () => {
-    const bad = userAdd('--email', 'x@example.org', '--name', 'X', '--role', 'janitor', '--password', 'a-long-enough-pass');
+    const bad = userAdd(
+      '--email',
+      'x@example.org',
+      '--name',
+      'X',
+      '--role',
+      'janitor',
+      '--password',
+      'a-long-enough-pass',
+    );
     expect(bad.code).toBe(1);
     expect(bad.err).toContain('role must be student, attending or director');
     const missing = userAdd('--email', 'y@example.org');
@@ -80,7 +147,11 @@ describe('npm run user:add: the password', () => {
   const who = (email: string) => ['--email', email, '--name', 'Pat Example', '--role', 'student'];
 
   it('is read as one line from standard input with --password-stdin, without its line ending', async () => {
-    const r = userAddWithInput('obturation-by-stdin\r\nthe second line is not read\n', ...who('stdin@example.org'), '--password-stdin');
+    const r = userAddWithInput(
+      'obturation-by-stdin\r\nthe second line is not read\n',
+      ...who('stdin@example.org'),
+      '--password-stdin',
+    );
     expect(r.err).toBe('');
     expect(r.code).toBe(0);
     expect(await canSignIn('stdin@example.org', 'obturation-by-stdin')).toBe(true);
@@ -105,7 +176,13 @@ describe('npm run user:add: the password', () => {
   });
 
   it('is refused when given both ways at once', () => {
-    const r = userAddWithInput('a-long-enough-pass\n', ...who('both@example.org'), '--password', 'a-long-enough-pass', '--password-stdin');
+    const r = userAddWithInput(
+      'a-long-enough-pass\n',
+      ...who('both@example.org'),
+      '--password',
+      'a-long-enough-pass',
+      '--password-stdin',
+    );
     expect(r.code).toBe(1);
     expect(r.err).toContain('use --password-stdin or --password, not both');
   });
@@ -113,7 +190,9 @@ describe('npm run user:add: the password', () => {
   it('is asked for only in a terminal: without one and without a flag it says how to give it', () => {
     const r = userAdd(...who('none@example.org'));
     expect(r.code).toBe(1);
-    expect(r.err).toContain('no password: run it in a terminal to be asked, or give one line on standard input with --password-stdin');
+    expect(r.err).toContain(
+      'no password: run it in a terminal to be asked, or give one line on standard input with --password-stdin',
+    );
   });
 
   it('has a usage text that warns --password shows the password in the process list', () => {
@@ -125,14 +204,21 @@ describe('npm run user:add: the password', () => {
 
   // util-linux's script(1) gives the command a terminal, as a person at a keyboard has.
   it.skipIf(!existsSync('/usr/bin/script'))('is asked for twice in a terminal, and never shown', async () => {
-    const cmd = [process.execPath, TSX, 'scripts/user-add.ts', ...who('tty@example.org')].map((a) => `'${a}'`).join(' ');
-    const child = spawn('/usr/bin/script', ['-qec', cmd, '/dev/null'], { cwd: ROOT, env: { ...process.env, DB_FILE: dbFile }, stdio: 'pipe' });
+    const cmd = [process.execPath, TSX, 'scripts/user-add.ts', ...who('tty@example.org')]
+      .map((a) => `'${a}'`)
+      .join(' ');
+    const child = spawn('/usr/bin/script', ['-qec', cmd, '/dev/null'], {
+      cwd: ROOT,
+      env: { ...process.env, DB_FILE: dbFile },
+      stdio: 'pipe',
+    });
     let screen = '';
     child.stdout.on('data', (d: Buffer) => (screen += d.toString()));
     const exited = new Promise<number | null>((resolve) => child.on('exit', resolve));
     const waitFor = async (text: string) => {
       for (const deadline = Date.now() + 20_000; !screen.includes(text); await new Promise((r) => setTimeout(r, 50))) {
-        if (child.exitCode !== null || Date.now() > deadline) throw new Error(`no ${JSON.stringify(text)} in: ${screen}`);
+        if (child.exitCode !== null || Date.now() > deadline)
+          throw new Error(`no ${JSON.stringify(text)} in: ${screen}`);
       }
     };
     await waitFor('Password:');

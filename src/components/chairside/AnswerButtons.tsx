@@ -75,7 +75,9 @@ export function ChipGroup({ label, children }: { label: string; children: ReactN
 export function StepCard({ title, hint, children }: { title: string; hint?: ReactNode; children: ReactNode }) {
   return (
     <section aria-labelledby="step-title" className="bg-white rounded-2xl border-2 border-gutta p-4 shadow-sm">
-      <h2 id="step-title" className="text-2xl font-bold mb-1">{title}</h2>
+      <h2 id="step-title" className="text-2xl font-bold mb-1">
+        {title}
+      </h2>
       {hint && <p className="text-base text-muted mb-3">{hint}</p>}
       {children}
     </section>

@@ -3,28 +3,60 @@ import { usualCanals } from '../../lib/rules/core';
 import { Answer, Answers, Chip, ChipGroup, StepCard } from './AnswerButtons';
 
 /** The canals to set up, proposed from the tooth's usual anatomy as toggles (editable). */
-export function CanalPicker(props: { tooth?: number; existing: string[]; onPick: (names: string[]) => void; onCancel?: () => void }) {
+export function CanalPicker(props: {
+  tooth?: number;
+  existing: string[];
+  onPick: (names: string[]) => void;
+  onCancel?: () => void;
+}) {
   const usual = props.tooth ? usualCanals(props.tooth) : { canals: ['Main'], optional: [] };
   const fresh = props.existing.length === 0;
   const [picked, setPicked] = useState<string[]>(fresh ? usual.canals : []);
   const [other, setOther] = useState('');
-  const offered = Array.from(new Set([...usual.canals, ...usual.optional, ...picked])).filter((n) => !props.existing.includes(n));
+  const offered = Array.from(new Set([...usual.canals, ...usual.optional, ...picked])).filter(
+    (n) => !props.existing.includes(n),
+  );
   const toggle = (n: string) => setPicked(picked.includes(n) ? picked.filter((x) => x !== n) : [...picked, n]);
   return (
-    <StepCard title={fresh ? 'Which canals?' : 'Add a canal'} hint="Proposed from the tooth's usual anatomy; change them to what you found.">
+    <StepCard
+      title={fresh ? 'Which canals?' : 'Add a canal'}
+      hint="Proposed from the tooth's usual anatomy; change them to what you found."
+    >
       <ChipGroup label="Canals">
-        {offered.map((n) => <Chip key={n} selected={picked.includes(n)} onTap={() => toggle(n)} testId={`canal-${n}`}>{usual.optional.includes(n) ? `add ${n}` : n}</Chip>)}
+        {offered.map((n) => (
+          <Chip key={n} selected={picked.includes(n)} onTap={() => toggle(n)} testId={`canal-${n}`}>
+            {usual.optional.includes(n) ? `add ${n}` : n}
+          </Chip>
+        ))}
       </ChipGroup>
       <div className="flex flex-wrap gap-2 items-end mb-3">
         <label className="text-base font-bold">
           Another name
-          <input value={other} maxLength={12} onChange={(e) => setOther(e.target.value)}
-            className="block min-h-14 w-40 px-3 text-xl border-2 border-ink rounded-lg font-normal" />
+          <input
+            value={other}
+            maxLength={12}
+            onChange={(e) => setOther(e.target.value)}
+            className="block min-h-14 w-40 px-3 text-xl border-2 border-ink rounded-lg font-normal"
+          />
         </label>
-        <Answer disabled={other.trim() === ''} onTap={() => { const n = other.trim(); if (n && !picked.includes(n)) setPicked([...picked, n]); setOther(''); }}>Add</Answer>
+        <Answer
+          disabled={other.trim() === ''}
+          onTap={() => {
+            const n = other.trim();
+            if (n && !picked.includes(n)) setPicked([...picked, n]);
+            setOther('');
+          }}
+        >
+          Add
+        </Answer>
       </div>
       <Answers>
-        <Answer tone="primary" disabled={picked.length === 0} onTap={() => props.onPick(offered.filter((n) => picked.includes(n)))} testId="canals-confirm">
+        <Answer
+          tone="primary"
+          disabled={picked.length === 0}
+          onTap={() => props.onPick(offered.filter((n) => picked.includes(n)))}
+          testId="canals-confirm"
+        >
           Set up {picked.length === 1 ? 'this canal' : `${picked.length} canals`}
         </Answer>
         {props.onCancel && <Answer onTap={props.onCancel}>Back</Answer>}

@@ -11,11 +11,23 @@ import { CONE_DESIGNATIONS } from './cardTypes';
 import { SEALERS } from './StepCardsPrep';
 
 const MAF_SIZES = ISO_SIZES.filter((s) => Number(s) >= 15 && Number(s) <= 60);
-const PREPARATIONS = [['step-back', 'Step-back'], ['0.04', 'Taper 0.04'], ['0.06', 'Taper 0.06']] as const;
+const PREPARATIONS = [
+  ['step-back', 'Step-back'],
+  ['0.04', 'Taper 0.04'],
+  ['0.06', 'Taper 0.06'],
+] as const;
 const CONE_SIZES = [...CONE_DESIGNATIONS, '20', '25'];
 
 /** One card per canal: reference point, CWL, MAF, preparation, spreader and cone sizes, sealer, orifice depth. */
-export function CanalSetup(props: { name: string; caseId: string; setting: Setting; tooth?: number; remaining: number; onDone: (canalId: string) => void; onCancel: () => void }) {
+export function CanalSetup(props: {
+  name: string;
+  caseId: string;
+  setting: Setting;
+  tooth?: number;
+  remaining: number;
+  onDone: (canalId: string) => void;
+  onCancel: () => void;
+}) {
   const record = useChairside((s) => s.record);
   const block = props.setting === 'block';
   const points = referencePointsFor(block ? undefined : props.tooth);
@@ -37,46 +49,109 @@ export function CanalSetup(props: { name: string; caseId: string; setting: Setti
     if (!ready) return;
     const canalId = newId();
     const data = {
-      name: props.name, referencePoint: refText, cwlMm: cwl, mafSize: maf, preparation, spreader, accessorySize: accessory, sealer,
+      name: props.name,
+      referencePoint: refText,
+      cwlMm: cwl,
+      mafSize: maf,
+      preparation,
+      spreader,
+      accessorySize: accessory,
+      sealer,
       ...(orifice !== undefined ? { orificeDepthMm: orifice } : {}),
     };
-    const ev = await record('canal.added', data, { canalId, label: `canal ${props.name} set up`, value: `CWL ${mm(cwl)} mm` });
+    const ev = await record('canal.added', data, {
+      canalId,
+      label: `canal ${props.name} set up`,
+      value: `CWL ${mm(cwl)} mm`,
+    });
     if (ev) props.onDone(canalId);
   };
 
   return (
-    <StepCard title={`Set up canal ${props.name}`} hint={props.remaining > 0 ? `${props.remaining} more canal${props.remaining === 1 ? '' : 's'} after this one.` : undefined}>
+    <StepCard
+      title={`Set up canal ${props.name}`}
+      hint={
+        props.remaining > 0
+          ? `${props.remaining} more canal${props.remaining === 1 ? '' : 's'} after this one.`
+          : undefined
+      }
+    >
       <ChipGroup label="Reference point">
-        {[...points, 'other'].map((p) => <Chip key={p} selected={referencePoint === p} onTap={() => setReferencePoint(p)}>{p}</Chip>)}
+        {[...points, 'other'].map((p) => (
+          <Chip key={p} selected={referencePoint === p} onTap={() => setReferencePoint(p)}>
+            {p}
+          </Chip>
+        ))}
       </ChipGroup>
       {referencePoint === 'other' && (
-        <label className="block text-base font-bold mb-3">Reference point
-          <input value={otherPoint} maxLength={60} onChange={(e) => setOtherPoint(e.target.value)}
-            className="block min-h-14 w-full max-w-sm px-3 text-xl border-2 border-ink rounded-lg font-normal" />
+        <label className="block text-base font-bold mb-3">
+          Reference point
+          <input
+            value={otherPoint}
+            maxLength={60}
+            onChange={(e) => setOtherPoint(e.target.value)}
+            className="block min-h-14 w-full max-w-sm px-3 text-xl border-2 border-ink rounded-lg font-normal"
+          />
         </label>
       )}
-      <RulerStrip label="CWL" centre={cwlCentre} expected={cwlCentre} selected={cwl} onTap={setCwl} testId="ruler-cwl" />
+      <RulerStrip
+        label="CWL"
+        centre={cwlCentre}
+        expected={cwlCentre}
+        selected={cwl}
+        onTap={setCwl}
+        testId="ruler-cwl"
+      />
       <ChipGroup label="MAF size">
-        {MAF_SIZES.map((s) => <IsoChip key={s} size={s} selected={maf === s} onTap={() => setMaf(s)} testId={`maf-${s}`} />)}
+        {MAF_SIZES.map((s) => (
+          <IsoChip key={s} size={s} selected={maf === s} onTap={() => setMaf(s)} testId={`maf-${s}`} />
+        ))}
       </ChipGroup>
       <ChipGroup label="Preparation">
-        {PREPARATIONS.map(([k, l]) => <Chip key={k} selected={preparation === k} onTap={() => setPreparation(k)}>{l}</Chip>)}
+        {PREPARATIONS.map(([k, l]) => (
+          <Chip key={k} selected={preparation === k} onTap={() => setPreparation(k)}>
+            {l}
+          </Chip>
+        ))}
       </ChipGroup>
       <ChipGroup label="Spreader">
-        {CONE_SIZES.map((s) => <IsoChip key={s} size={s} selected={spreader === s} onTap={() => setSpreader(s)} testId={`spreader-${s}`} />)}
+        {CONE_SIZES.map((s) => (
+          <IsoChip key={s} size={s} selected={spreader === s} onTap={() => setSpreader(s)} testId={`spreader-${s}`} />
+        ))}
       </ChipGroup>
       <ChipGroup label="Accessory cones">
-        {CONE_SIZES.map((s) => <IsoChip key={s} size={s} selected={accessory === s} onTap={() => setAccessory(s)} testId={`accessory-${s}`} />)}
+        {CONE_SIZES.map((s) => (
+          <IsoChip
+            key={s}
+            size={s}
+            selected={accessory === s}
+            onTap={() => setAccessory(s)}
+            testId={`accessory-${s}`}
+          />
+        ))}
       </ChipGroup>
       <ChipGroup label="Sealer">
-        {SEALERS.map(([k, l]) => <Chip key={k} selected={sealer === k} onTap={() => setSealer(k)}>{l}</Chip>)}
+        {SEALERS.map(([k, l]) => (
+          <Chip key={k} selected={sealer === k} onTap={() => setSealer(k)}>
+            {l}
+          </Chip>
+        ))}
       </ChipGroup>
       {!block && (
-        <RulerStrip label="Orifice depth (optional)" centre={7} selected={orifice} min={0} max={20}
-          onTap={(v) => setOrifice(orifice === v ? undefined : v)} testId="ruler-orifice" />
+        <RulerStrip
+          label="Orifice depth (optional)"
+          centre={7}
+          selected={orifice}
+          min={0}
+          max={20}
+          onTap={(v) => setOrifice(orifice === v ? undefined : v)}
+          testId="ruler-orifice"
+        />
       )}
       <Answers>
-        <Answer tone="primary" disabled={!ready} onTap={() => void save()} testId="save-canal">Save canal {props.name}</Answer>
+        <Answer tone="primary" disabled={!ready} onTap={() => void save()} testId="save-canal">
+          Save canal {props.name}
+        </Answer>
         <Answer onTap={props.onCancel}>Cancel</Answer>
       </Answers>
     </StepCard>

@@ -16,26 +16,47 @@ import { DryCard, MasterCard, RadiographCard, RinseCard, SealCard, SeatCard, Tap
 
 function renderCard(card: Card, p: CardProps, onFinishTooth: () => void, retake: boolean) {
   switch (card.kind) {
-    case 'seat': return <SeatCard {...p} />;
-    case 'taper': return <TaperCard {...p} centre={card.centre} />;
-    case 'radiograph': return <RadiographCard {...p} purpose={card.purpose} retake={retake && card.purpose === 'cone-fit'} />;
-    case 'rinse': return <RinseCard {...p} />;
-    case 'dry': return <DryCard {...p} centre={card.centre} />;
-    case 'master': return <MasterCard {...p} centre={card.centre} refit={card.refit} />;
-    case 'seal': return <SealCard {...p} />;
-    case 'spreader': return <SpreaderCard {...p} cycle={card.cycle} centre={card.centre} complete={card.complete} />;
-    case 'accessory': return <AccessoryCard {...p} cycle={card.cycle} depthMm={card.depthMm} redo={card.redo} />;
-    case 'remove': return <RemoveCard {...p} eventId={card.eventId} lengthMm={card.lengthMm} depthMm={card.depthMm} />;
-    case 'fill': return <FillCard {...p} radiographTaken={card.radiographTaken} needsRadiograph={card.needsRadiograph} />;
-    case 'sear': return <SearCard {...p} />;
-    case 'compact': return <CompactCard {...p} />;
-    case 'clean': return <CleanCard {...p} />;
-    case 'done': return <DoneCard {...p} onFinishTooth={onFinishTooth} />;
+    case 'seat':
+      return <SeatCard {...p} />;
+    case 'taper':
+      return <TaperCard {...p} centre={card.centre} />;
+    case 'radiograph':
+      return <RadiographCard {...p} purpose={card.purpose} retake={retake && card.purpose === 'cone-fit'} />;
+    case 'rinse':
+      return <RinseCard {...p} />;
+    case 'dry':
+      return <DryCard {...p} centre={card.centre} />;
+    case 'master':
+      return <MasterCard {...p} centre={card.centre} refit={card.refit} />;
+    case 'seal':
+      return <SealCard {...p} />;
+    case 'spreader':
+      return <SpreaderCard {...p} cycle={card.cycle} centre={card.centre} complete={card.complete} />;
+    case 'accessory':
+      return <AccessoryCard {...p} cycle={card.cycle} depthMm={card.depthMm} redo={card.redo} />;
+    case 'remove':
+      return <RemoveCard {...p} eventId={card.eventId} lengthMm={card.lengthMm} depthMm={card.depthMm} />;
+    case 'fill':
+      return <FillCard {...p} radiographTaken={card.radiographTaken} needsRadiograph={card.needsRadiograph} />;
+    case 'sear':
+      return <SearCard {...p} />;
+    case 'compact':
+      return <CompactCard {...p} />;
+    case 'clean':
+      return <CleanCard {...p} />;
+    case 'done':
+      return <DoneCard {...p} onFinishTooth={onFinishTooth} />;
   }
 }
 
 /** The selected canal: its current step card, the value just entered with its verdict, findings, diagram. */
-export function CanalStepper(props: { canal: CanalInfo; setting: Setting; caseId: string; events: LogEvent[]; onFinishTooth: () => void }) {
+export function CanalStepper(props: {
+  canal: CanalInfo;
+  setting: Setting;
+  caseId: string;
+  events: LogEvent[];
+  onFinishTooth: () => void;
+}) {
   const { setting, caseId, events } = props;
   const canalId = props.canal.canalId;
   const rows = useChairside((s) => s.rows);
@@ -47,7 +68,10 @@ export function CanalStepper(props: { canal: CanalInfo; setting: Setting; caseId
 
   useEffect(() => keepAwake(), [canalId]);
 
-  const shown = useMemo(() => shownResult(rows, server, events, caseId, canalId), [rows, server, events, caseId, canalId]);
+  const shown = useMemo(
+    () => shownResult(rows, server, events, caseId, canalId),
+    [rows, server, events, caseId, canalId],
+  );
   const findings = shown.result?.findings ?? [];
   const state = shown.result?.state ?? null;
   // The cards work to the current CWL: the set-up's, or the latest correction.
@@ -64,7 +88,9 @@ export function CanalStepper(props: { canal: CanalInfo; setting: Setting; caseId
     canal,
     setting,
     state,
-    rec: async (type, data, label, value) => { await record(type, data, { canalId: canal.canalId, label, value }); },
+    rec: async (type, data, label, value) => {
+      await record(type, data, { canalId: canal.canalId, label, value });
+    },
   };
   const lastHere = last && last.canalId === canal.canalId ? last : null;
   const verdict = lastHere ? findings.filter((f) => f.eventId === lastHere.eventId) : [];
@@ -73,13 +99,25 @@ export function CanalStepper(props: { canal: CanalInfo; setting: Setting; caseId
   return (
     <div className="grid gap-4 landscape:grid-cols-[minmax(0,1fr)_340px] portrait:grid-cols-1">
       <div data-testid="step" data-card={card.kind}>
-        <div key={cardKey}>{renderCard(card, cardProps, props.onFinishTooth, findings.some((f) => f.code === 'cone-fit-retake-needed'))}</div>
-        {lastHere && <JustEntered key={lastHere.eventId} label={lastHere.label} value={lastHere.value} findings={verdict} />}
+        <div key={cardKey}>
+          {renderCard(
+            card,
+            cardProps,
+            props.onFinishTooth,
+            findings.some((f) => f.code === 'cone-fit-retake-needed'),
+          )}
+        </div>
+        {lastHere && (
+          <JustEntered key={lastHere.eventId} label={lastHere.label} value={lastHere.value} findings={verdict} />
+        )}
         <FindingList findings={findings} source={shown.source} />
         <CwlCorrection canalId={canal.canalId} cwlMm={canal.cwlMm} />
         <CanalTimeline canalId={canal.canalId} events={events} />
       </div>
-      <aside aria-label={`Diagram of canal ${canal.name}`} className="bg-white rounded-2xl border border-line p-3 portrait:max-w-md">
+      <aside
+        aria-label={`Diagram of canal ${canal.name}`}
+        className="bg-white rounded-2xl border border-line p-3 portrait:max-w-md"
+      >
         {state ? <CanalDiagram state={state} /> : <p className="text-muted">No diagram yet.</p>}
       </aside>
     </div>

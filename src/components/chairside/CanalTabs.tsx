@@ -1,8 +1,14 @@
 import type { CanalInfo } from '../../lib/client/events';
 
 const STATUS_WORD: Record<string, string> = {
-  'set-up': 'set up', verified: 'verified', 'cone-fitted': 'cone fitted', compacting: 'compacting',
-  filled: 'filled', seared: 'seared', restored: 'restored', submitted: 'submitted',
+  'set-up': 'set up',
+  verified: 'verified',
+  'cone-fitted': 'cone fitted',
+  compacting: 'compacting',
+  filled: 'filled',
+  seared: 'seared',
+  restored: 'restored',
+  submitted: 'submitted',
 };
 
 /** Canals as large tabs with a small status word, plus "Add canal" and "Finish tooth". */
@@ -23,18 +29,34 @@ export function CanalTabs(props: {
         const active = props.view === 'canal' && props.selected === c.canalId;
         const status = props.statuses[c.canalId];
         return (
-          <button key={c.canalId} type="button" aria-current={active ? 'page' : undefined} data-testid={`tab-${c.name}`}
-            onClick={() => props.onSelect(c.canalId)} className={tab(active)}>
+          <button
+            key={c.canalId}
+            type="button"
+            aria-current={active ? 'page' : undefined}
+            data-testid={`tab-${c.name}`}
+            onClick={() => props.onSelect(c.canalId)}
+            className={tab(active)}
+          >
             {c.name}
             {status && <span className="block text-sm font-normal">{STATUS_WORD[status] ?? status}</span>}
           </button>
         );
       })}
-      <button type="button" aria-current={props.view === 'add' ? 'page' : undefined} onClick={props.onAdd} className={tab(props.view === 'add')}>
+      <button
+        type="button"
+        aria-current={props.view === 'add' ? 'page' : undefined}
+        onClick={props.onAdd}
+        className={tab(props.view === 'add')}
+      >
         + Canal
       </button>
       {props.canals.length > 0 && (
-        <button type="button" aria-current={props.view === 'finish' ? 'page' : undefined} onClick={props.onFinish} className={tab(props.view === 'finish')}>
+        <button
+          type="button"
+          aria-current={props.view === 'finish' ? 'page' : undefined}
+          onClick={props.onFinish}
+          className={tab(props.view === 'finish')}
+        >
           Finish tooth
         </button>
       )}

@@ -14,19 +14,35 @@ export function CanalTimeline({ canalId, events }: { canalId: string; events: Lo
   const list = useMemo(() => liveEvents(events).filter((e) => e.canalId === canalId), [events, canalId]);
   return (
     <section aria-label="Timeline" className="mt-4">
-      <button type="button" aria-expanded={open} onClick={() => setOpen(!open)}
-        className="min-h-14 min-w-14 px-4 rounded-lg border-2 border-ink bg-white text-lg font-bold">
+      <button
+        type="button"
+        aria-expanded={open}
+        onClick={() => setOpen(!open)}
+        className="min-h-14 min-w-14 px-4 rounded-lg border-2 border-ink bg-white text-lg font-bold"
+      >
         {open ? 'Hide timeline' : `Timeline (${list.length})`}
       </button>
       {open && (
         <ol className="mt-2 flex flex-col gap-2" data-testid="timeline">
           {list.map((e) => (
-            <li key={e.id} className="flex flex-wrap items-center gap-3 bg-white border border-line rounded-lg px-3 py-1">
+            <li
+              key={e.id}
+              className="flex flex-wrap items-center gap-3 bg-white border border-line rounded-lg px-3 py-1"
+            >
               <span className="text-sm text-muted tabular">{new Date(e.at).toLocaleTimeString()}</span>
               <span className="text-base flex-1">{describeEvent(e)}</span>
               {e.type !== 'canal.added' && (
-                <button type="button" onClick={() => void record('event.voided', { eventId: e.id, reason: 'Withdrawn from the timeline' }, { canalId, label: `withdrawn: ${describeEvent(e)}` })}
-                  className="min-h-14 min-w-14 px-3 rounded-lg border-2 border-stop text-stop bg-white font-bold">
+                <button
+                  type="button"
+                  onClick={() =>
+                    void record(
+                      'event.voided',
+                      { eventId: e.id, reason: 'Withdrawn from the timeline' },
+                      { canalId, label: `withdrawn: ${describeEvent(e)}` },
+                    )
+                  }
+                  className="min-h-14 min-w-14 px-3 rounded-lg border-2 border-stop text-stop bg-white font-bold"
+                >
                   Withdraw
                 </button>
               )}

@@ -27,34 +27,70 @@ export function CaseView(props: { info: CaseInfo; canals: CanalInfo[]; events: L
   let body;
   if (showAdd && queue.length > 0) {
     body = (
-      <CanalSetup key={queue[0]} name={queue[0]!} caseId={info.caseId} setting={info.setting} tooth={info.tooth} remaining={queue.length - 1}
+      <CanalSetup
+        key={queue[0]}
+        name={queue[0]!}
+        caseId={info.caseId}
+        setting={info.setting}
+        tooth={info.tooth}
+        remaining={queue.length - 1}
         onCancel={() => setQueue([])}
         onDone={(id) => {
           const rest = queue.slice(1);
           const first = firstNew ?? id;
           setQueue(rest);
           setFirstNew(rest.length ? first : null);
-          if (rest.length === 0) { selectCanal(first); setView('canal'); }
-        }} />
+          if (rest.length === 0) {
+            selectCanal(first);
+            setView('canal');
+          }
+        }}
+      />
     );
   } else if (showAdd) {
     body = (
-      <CanalPicker tooth={info.setting === 'block' ? undefined : info.tooth} existing={canals.map((c) => c.name)}
-        onPick={(names) => { setQueue(names); setFirstNew(null); }}
-        onCancel={canals.length ? () => setView('canal') : undefined} />
+      <CanalPicker
+        tooth={info.setting === 'block' ? undefined : info.tooth}
+        existing={canals.map((c) => c.name)}
+        onPick={(names) => {
+          setQueue(names);
+          setFirstNew(null);
+        }}
+        onCancel={canals.length ? () => setView('canal') : undefined}
+      />
     );
   } else if (view === 'finish') {
     body = <Summary info={info} canals={canals} events={events} />;
   } else if (selected) {
-    body = <CanalStepper key={selected.canalId} canal={selected} setting={info.setting} caseId={info.caseId} events={events} onFinishTooth={() => setView('finish')} />;
+    body = (
+      <CanalStepper
+        key={selected.canalId}
+        canal={selected}
+        setting={info.setting}
+        caseId={info.caseId}
+        events={events}
+        onFinishTooth={() => setView('finish')}
+      />
+    );
   }
 
   return (
     <div className="-m-3">
-      <CanalTabs canals={canals} statuses={statuses} selected={selected?.canalId ?? null} view={showAdd ? 'add' : view}
-        onSelect={(id) => { selectCanal(id); setView('canal'); }}
-        onAdd={() => { setQueue([]); setView('add'); }}
-        onFinish={() => setView('finish')} />
+      <CanalTabs
+        canals={canals}
+        statuses={statuses}
+        selected={selected?.canalId ?? null}
+        view={showAdd ? 'add' : view}
+        onSelect={(id) => {
+          selectCanal(id);
+          setView('canal');
+        }}
+        onAdd={() => {
+          setQueue([]);
+          setView('add');
+        }}
+        onFinish={() => setView('finish')}
+      />
       <div className="p-3">{body}</div>
     </div>
   );

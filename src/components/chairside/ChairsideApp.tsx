@@ -38,40 +38,79 @@ export default function ChairsideApp() {
   if (phase === 'loading') body = <p className="text-lg">Opening the log on this tablet…</p>;
   else if (!identity.user) {
     body = (
-      <StepCard title={identity.signedOut ? 'Sign in to record' : 'Sign in first'}
-        hint={identity.signedOut ? 'Nobody is signed in on this tablet.' : 'Sign in once while online; after that the tablet works offline as you.'}>
-        <a href="/signin?callbackUrl=/chairside" className="inline-flex items-center min-h-16 px-5 rounded-xl border-2 border-gutta-strong bg-gutta-strong text-white text-xl font-bold">Sign in</a>
+      <StepCard
+        title={identity.signedOut ? 'Sign in to record' : 'Sign in first'}
+        hint={
+          identity.signedOut
+            ? 'Nobody is signed in on this tablet.'
+            : 'Sign in once while online; after that the tablet works offline as you.'
+        }
+      >
+        <a
+          href="/signin?callbackUrl=/chairside"
+          className="inline-flex items-center min-h-16 px-5 rounded-xl border-2 border-gutta-strong bg-gutta-strong text-white text-xl font-bold"
+        >
+          Sign in
+        </a>
       </StepCard>
     );
   } else if (identity.user.role !== 'student') {
-    body = <StepCard title="Chairside is for students" hint="Attendings and directors review cases on the desktop pages."><a className="underline text-lg" href="/">Home</a></StepCard>;
+    body = (
+      <StepCard title="Chairside is for students" hint="Attendings and directors review cases on the desktop pages.">
+        <a className="underline text-lg" href="/">
+          Home
+        </a>
+      </StepCard>
+    );
   } else if (creating && !caseId) body = <OpenCase onCancel={() => setCreating(false)} />;
   else if (!caseId || !info) body = <CaseList onNew={() => setCreating(true)} />;
   else body = <CaseView key={caseId} info={info} canals={canals} events={events} />;
 
   return (
     <div className="min-h-screen flex flex-col">
-      <TopBar info={info} onCases={() => { setCreating(false); openCase(null); }} onSignOut={() => setSigningOut(true)} />
+      <TopBar
+        info={info}
+        onCases={() => {
+          setCreating(false);
+          openCase(null);
+        }}
+        onSignOut={() => setSigningOut(true)}
+      />
       {update && (
         <div className="bg-note text-white px-4 py-2 flex items-center gap-4" role="status">
           <p className="text-lg">A new version of Coneline is ready.</p>
-          <button type="button" onClick={update} className="min-h-14 min-w-14 px-4 rounded-lg border-2 border-white font-bold">Reload</button>
+          <button
+            type="button"
+            onClick={update}
+            className="min-h-14 min-w-14 px-4 rounded-lg border-2 border-white font-bold"
+          >
+            Reload
+          </button>
         </div>
       )}
       {identity.signedOut && identity.user && (
         <p className="bg-white border-b-2 border-stop px-4 py-2 text-lg" role="alert">
-          Your session has ended: what you record stays on this tablet. <a className="underline font-bold" href="/signin?callbackUrl=/chairside">Sign in again</a> to send it.
+          Your session has ended: what you record stays on this tablet.{' '}
+          <a className="underline font-bold" href="/signin?callbackUrl=/chairside">
+            Sign in again
+          </a>{' '}
+          to send it.
         </p>
       )}
       <main id="main" className="flex-1 pb-28">
-        {error && <p role="alert" className="mx-3 mt-3 p-3 border-2 border-stop bg-white text-stop font-bold">{error}</p>}
+        {error && (
+          <p role="alert" className="mx-3 mt-3 p-3 border-2 border-stop bg-white text-stop font-bold">
+            {error}
+          </p>
+        )}
         <div className="p-3">{body}</div>
         <RejectedList caseId={caseId} />
-        <p className="mx-3 text-base text-muted border-l-4 border-line pl-3" data-testid="safety-line">{SAFETY_LINE}</p>
+        <p className="mx-3 text-base text-muted border-l-4 border-line pl-3" data-testid="safety-line">
+          {SAFETY_LINE}
+        </p>
       </main>
       {signingOut && <SignOutDialog onClose={() => setSigningOut(false)} />}
       <UndoStrip />
     </div>
   );
 }
-

@@ -20,16 +20,30 @@ export function CwlCorrection({ canalId, cwlMm }: { canalId: string; cwlMm: numb
   };
   return (
     <section aria-label="Working length" className="mt-4">
-      <button type="button" aria-expanded={open} onClick={() => setOpen(!open)}
-        className="min-h-14 min-w-14 px-4 rounded-lg border-2 border-ink bg-white text-lg font-bold">
+      <button
+        type="button"
+        aria-expanded={open}
+        onClick={() => setOpen(!open)}
+        className="min-h-14 min-w-14 px-4 rounded-lg border-2 border-ink bg-white text-lg font-bold"
+      >
         {open ? 'Keep the CWL' : `Correct the CWL (${mm(cwlMm)} mm)`}
       </button>
       {open && (
         <div className="mt-2 bg-white border border-line rounded-lg p-3">
           <ChipGroup label="Corrected from">
-            {REASONS.map((r) => <Chip key={r} selected={reason === r} onTap={() => setReason(r)}>{r}</Chip>)}
+            {REASONS.map((r) => (
+              <Chip key={r} selected={reason === r} onTap={() => setReason(r)}>
+                {r}
+              </Chip>
+            ))}
           </ChipGroup>
-          <RulerStrip label="New CWL" centre={cwlMm} expected={cwlMm} testId="cwl-ruler" onTap={(v) => void correct(v)} />
+          <RulerStrip
+            label="New CWL"
+            centre={cwlMm}
+            expected={cwlMm}
+            testId="cwl-ruler"
+            onTap={(v) => void correct(v)}
+          />
         </div>
       )}
     </section>

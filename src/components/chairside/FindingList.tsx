@@ -24,10 +24,15 @@ export function FindingList(props: { findings: Finding[]; source: 'server' | 'ta
   return (
     <section aria-label="Findings" className="mt-3" data-testid="findings-panel" data-source={props.source}>
       <h3 className="text-lg font-bold">
-        Findings <span className="text-sm font-normal text-muted">({props.source === 'server' ? 'checked by the server' : 'checked on this tablet'})</span>
+        Findings{' '}
+        <span className="text-sm font-normal text-muted">
+          ({props.source === 'server' ? 'checked by the server' : 'checked on this tablet'})
+        </span>
       </h3>
       {list.length === 0 ? (
-        <p className="text-base text-muted" data-testid="no-findings">{props.empty ?? 'Nothing to flag so far.'}</p>
+        <p className="text-base text-muted" data-testid="no-findings">
+          {props.empty ?? 'Nothing to flag so far.'}
+        </p>
       ) : (
         <ul className="flex flex-col gap-2 mt-1" data-testid="findings">
           {list.map((f, i) => (
@@ -51,11 +56,15 @@ export function JustEntered(props: { label: string; value: string; findings: Fin
       </div>
       <div className="text-lg">
         {props.findings.length === 0 ? (
-          <span className="font-bold text-ink" data-testid="verdict">✓ No finding</span>
+          <span className="font-bold text-ink" data-testid="verdict">
+            ✓ No finding
+          </span>
         ) : (
           <ul data-testid="verdict">
             {props.findings.map((f, i) => (
-              <li key={i}><SeverityMark severity={f.severity} /> <span className="text-base">{f.message}</span></li>
+              <li key={i}>
+                <SeverityMark severity={f.severity} /> <span className="text-base">{f.message}</span>
+              </li>
             ))}
           </ul>
         )}

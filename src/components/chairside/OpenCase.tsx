@@ -6,8 +6,14 @@ import type { Setting } from '../../lib/client/events';
 import { Answer, Answers, Chip, StepCard } from './AnswerButtons';
 
 const QUADRANTS: Record<number, string> = {
-  1: 'upper right', 2: 'upper left', 3: 'lower left', 4: 'lower right',
-  5: 'upper right', 6: 'upper left', 7: 'lower left', 8: 'lower right',
+  1: 'upper right',
+  2: 'upper left',
+  3: 'lower left',
+  4: 'lower right',
+  5: 'upper right',
+  6: 'upper left',
+  7: 'lower left',
+  8: 'lower right',
 };
 
 /** Open a case: setting, then the tooth in two taps (quadrant, tooth), and for a patient the chart number. */
@@ -33,9 +39,21 @@ export function OpenCase({ onCancel }: { onCancel?: () => void }) {
     return (
       <StepCard title="What are you filling?" hint="A new case: one tooth (or block), canal by canal.">
         <Answers>
-          <Answer tone="primary" onTap={() => { setSetting('block'); void open({ setting: 'block' }); }}>Training block</Answer>
-          <Answer tone="primary" onTap={() => setSetting('extracted')}>Extracted tooth</Answer>
-          <Answer tone="primary" onTap={() => setSetting('patient')}>Patient</Answer>
+          <Answer
+            tone="primary"
+            onTap={() => {
+              setSetting('block');
+              void open({ setting: 'block' });
+            }}
+          >
+            Training block
+          </Answer>
+          <Answer tone="primary" onTap={() => setSetting('extracted')}>
+            Extracted tooth
+          </Answer>
+          <Answer tone="primary" onTap={() => setSetting('patient')}>
+            Patient
+          </Answer>
           {onCancel && <Answer onTap={onCancel}>Back</Answer>}
         </Answers>
       </StepCard>
@@ -55,7 +73,9 @@ export function OpenCase({ onCancel }: { onCancel?: () => void }) {
           ))}
         </Answers>
         <div className="mt-3 flex flex-wrap gap-2">
-          <Chip selected={primary} onTap={() => setPrimary(!primary)}>Primary teeth</Chip>
+          <Chip selected={primary} onTap={() => setPrimary(!primary)}>
+            Primary teeth
+          </Chip>
           <Answer onTap={() => setSetting(null)}>Back</Answer>
         </div>
       </StepCard>
@@ -68,7 +88,11 @@ export function OpenCase({ onCancel }: { onCancel?: () => void }) {
       <StepCard title="Which tooth?" hint={`Quadrant ${quadrant}, ${QUADRANTS[quadrant]}.`}>
         <Answers>
           {teeth.map((t) => (
-            <Answer key={t} testId={`tooth-${t}`} onTap={() => (setting === 'extracted' ? void open({ setting, tooth: t }) : setTooth(t))}>
+            <Answer
+              key={t}
+              testId={`tooth-${t}`}
+              onTap={() => (setting === 'extracted' ? void open({ setting, tooth: t }) : setTooth(t))}
+            >
               <span className="tabular text-2xl">{t}</span>
               <span className="block text-sm font-normal">{toothName(t).split(' ').slice(2).join(' ')}</span>
               {showUniversal && <span className="block text-sm font-normal">Universal {fdiToUniversal(t)}</span>}
@@ -76,7 +100,9 @@ export function OpenCase({ onCancel }: { onCancel?: () => void }) {
           ))}
         </Answers>
         <div className="mt-3 flex flex-wrap gap-2">
-          <Chip selected={showUniversal} onTap={toggleUniversal}>Show Universal numbers</Chip>
+          <Chip selected={showUniversal} onTap={toggleUniversal}>
+            Show Universal numbers
+          </Chip>
           <Answer onTap={() => setQuadrant(null)}>Back</Answer>
         </div>
       </StepCard>
@@ -85,12 +111,27 @@ export function OpenCase({ onCancel }: { onCancel?: () => void }) {
 
   return (
     <StepCard title="Chart number" hint={`Tooth ${tooth}. The clinic's chart number only — no names.`}>
-      <label className="block text-lg font-bold mb-2" htmlFor="chart-ref">Chart number</label>
-      <input id="chart-ref" value={chartRef} onChange={(e) => setChartRef(e.target.value)} inputMode="text" autoComplete="off" maxLength={64}
-        className="min-h-14 w-full max-w-sm px-3 text-2xl border-2 border-ink rounded-lg" />
+      <label className="block text-lg font-bold mb-2" htmlFor="chart-ref">
+        Chart number
+      </label>
+      <input
+        id="chart-ref"
+        value={chartRef}
+        onChange={(e) => setChartRef(e.target.value)}
+        inputMode="text"
+        autoComplete="off"
+        maxLength={64}
+        className="min-h-14 w-full max-w-sm px-3 text-2xl border-2 border-ink rounded-lg"
+      />
       <div className="mt-3">
         <Answers>
-          <Answer tone="primary" disabled={chartRef.trim() === ''} onTap={() => void open({ setting: 'patient', tooth, chartRef: chartRef.trim() })}>Open case</Answer>
+          <Answer
+            tone="primary"
+            disabled={chartRef.trim() === ''}
+            onTap={() => void open({ setting: 'patient', tooth, chartRef: chartRef.trim() })}
+          >
+            Open case
+          </Answer>
           <Answer onTap={() => setTooth(null)}>Back</Answer>
         </Answers>
       </div>

@@ -30,7 +30,9 @@ export function RulerStrip(props: {
   const canWiden = props.span === undefined && spanIndex < SPANS.length - 1;
   return (
     <div role="group" aria-label={props.label} data-testid={props.testId ?? 'ruler'} className="my-3">
-      <p className="text-base font-bold mb-1">{props.label} <span className="font-normal text-muted">(mm)</span></p>
+      <p className="text-base font-bold mb-1">
+        {props.label} <span className="font-normal text-muted">(mm)</span>
+      </p>
       <div className="flex flex-wrap gap-2">
         {values.map((v) => {
           const isExpected = props.expected !== undefined && Math.abs(v - props.expected) < 1e-9;
@@ -44,11 +46,22 @@ export function RulerStrip(props: {
               aria-label={`${mm(v)} millimetres${isExpected ? ', expected' : ''}`}
               onClick={() => props.onTap(v)}
               className={`relative min-h-16 min-w-16 w-16 rounded-lg border-2 text-lg font-bold tabular flex flex-col items-center justify-center ${
-                isSelected ? 'bg-ink text-white border-ink ring-4 ring-gutta' : isExpected ? 'bg-white border-gutta-strong border-4' : 'bg-white border-ink'
+                isSelected
+                  ? 'bg-ink text-white border-ink ring-4 ring-gutta'
+                  : isExpected
+                    ? 'bg-white border-gutta-strong border-4'
+                    : 'bg-white border-ink'
               }`}
             >
               <span>{mm(v)}</span>
-              {isExpected && <span className={`text-xs font-bold ${isSelected ? 'text-white' : 'text-gutta-strong'}`} aria-hidden="true">expected</span>}
+              {isExpected && (
+                <span
+                  className={`text-xs font-bold ${isSelected ? 'text-white' : 'text-gutta-strong'}`}
+                  aria-hidden="true"
+                >
+                  expected
+                </span>
+              )}
             </button>
           );
         })}

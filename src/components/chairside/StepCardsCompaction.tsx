@@ -21,14 +21,20 @@ export function SpreaderCard(props: CardProps & { cycle: number; centre: number;
           The spreader no longer passes the coronal third: you can finish compaction, or go on.
         </p>
       )}
-      <RulerStrip label="Spreader depth" centre={centre} expected={centre}
+      <RulerStrip
+        label="Spreader depth"
+        centre={centre}
+        expected={centre}
         onTap={(v) => {
           setReplace(canal.canalId, false);
           void rec('spreader.placed', { spreader, depthMm: v }, `spreader, cycle ${cycle}`, `${mm(v)} mm`);
-        }} />
+        }}
+      />
       {cycle > 1 && (
         <Answers>
-          <Answer tone={complete ? 'primary' : 'plain'} onTap={() => setFinished(canal.canalId, true)}>Finish compaction</Answer>
+          <Answer tone={complete ? 'primary' : 'plain'} onTap={() => setFinished(canal.canalId, true)}>
+            Finish compaction
+          </Answer>
         </Answers>
       )}
     </StepCard>
@@ -42,19 +48,41 @@ export function AccessoryCard(props: CardProps & { cycle: number; depthMm: numbe
   const [length, setLength] = useState(depthMm);
   const sizes = Array.from(new Set([...CONE_DESIGNATIONS, size, '20', '25']));
   const place = (reachedLength: boolean) =>
-    rec('accessory.placed', { size, lengthMm: length, reachedLength }, `accessory cone ${size}, cycle ${cycle}${reachedLength ? '' : ' (short)'}`, `${mm(length)} mm`);
+    rec(
+      'accessory.placed',
+      { size, lengthMm: length, reachedLength },
+      `accessory cone ${size}, cycle ${cycle}${reachedLength ? '' : ' (short)'}`,
+      `${mm(length)} mm`,
+    );
   return (
     <StepCard
-      title={redo ? `Place another cone at ${mm(depthMm)} mm: did it reach?` : `Accessory cone measured to ${mm(depthMm)} mm: did it reach?`}
+      title={
+        redo
+          ? `Place another cone at ${mm(depthMm)} mm: did it reach?`
+          : `Accessory cone measured to ${mm(depthMm)} mm: did it reach?`
+      }
       hint="Coat it with sealer and place it the moment the spreader comes out."
     >
       <ChipGroup label="Cone size">
-        {sizes.map((s) => <IsoChip key={s} size={s} selected={size === s} onTap={() => setSize(s)} />)}
+        {sizes.map((s) => (
+          <IsoChip key={s} size={s} selected={size === s} onTap={() => setSize(s)} />
+        ))}
       </ChipGroup>
-      <RulerStrip label="Cone measured to" centre={depthMm} expected={depthMm} selected={length} onTap={setLength} testId="ruler-accessory" />
+      <RulerStrip
+        label="Cone measured to"
+        centre={depthMm}
+        expected={depthMm}
+        selected={length}
+        onTap={setLength}
+        testId="ruler-accessory"
+      />
       <Answers>
-        <Answer tone="primary" onTap={() => place(true)} testId="reached">Reached</Answer>
-        <Answer tone="warn" onTap={() => place(false)} testId="stopped-short">Stopped short</Answer>
+        <Answer tone="primary" onTap={() => place(true)} testId="reached">
+          Reached
+        </Answer>
+        <Answer tone="warn" onTap={() => place(false)} testId="stopped-short">
+          Stopped short
+        </Answer>
         {redo && <Answer onTap={() => setReplace(canal.canalId, true)}>Re-place the spreader first</Answer>}
       </Answers>
     </StepCard>
@@ -64,13 +92,26 @@ export function AccessoryCard(props: CardProps & { cycle: number; depthMm: numbe
 export function RemoveCard(props: CardProps & { eventId: string; lengthMm: number; depthMm: number }) {
   const { rec, eventId, depthMm } = props;
   return (
-    <StepCard title="The cone stopped short: remove it" hint={`A cone short of the spreader depth (${mm(depthMm)} mm) leaves a void. Remove it, then place another.`}>
+    <StepCard
+      title="The cone stopped short: remove it"
+      hint={`A cone short of the spreader depth (${mm(depthMm)} mm) leaves a void. Remove it, then place another.`}
+    >
       <Answers>
-        <Answer tone="primary" testId="removed" onTap={() => rec('accessory.removed', { eventId, reason: 'Stopped short of the spreader depth' }, 'short cone removed', 'Removed')}>
+        <Answer
+          tone="primary"
+          testId="removed"
+          onTap={() =>
+            rec(
+              'accessory.removed',
+              { eventId, reason: 'Stopped short of the spreader depth' },
+              'short cone removed',
+              'Removed',
+            )
+          }
+        >
           Removed
         </Answer>
       </Answers>
     </StepCard>
   );
 }
-

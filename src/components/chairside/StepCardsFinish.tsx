@@ -4,7 +4,12 @@ import { Answer, Answers, Chip, ChipGroup, StepCard } from './AnswerButtons';
 import { mm, RulerStrip } from './RulerStrip';
 import type { CardProps } from './cardTypes';
 
-const LENGTHS = [['flush', 'Flush'], ['short-0-2', '0–2 mm short'], ['short-over-2', 'Over 2 mm short'], ['beyond', 'Beyond the apex']] as const;
+const LENGTHS = [
+  ['flush', 'Flush'],
+  ['short-0-2', '0–2 mm short'],
+  ['short-over-2', 'Over 2 mm short'],
+  ['beyond', 'Beyond the apex'],
+] as const;
 
 export function FillCard(props: CardProps & { radiographTaken: boolean; needsRadiograph: boolean }) {
   const { canal, rec, radiographTaken, needsRadiograph } = props;
@@ -21,24 +26,37 @@ export function FillCard(props: CardProps & { radiographTaken: boolean; needsRad
   };
   return (
     <StepCard
-      title={needsRadiograph ? 'Fill check: radiograph, and what does it show?' : 'Fill check: what does the fill show?'}
+      title={
+        needsRadiograph ? 'Fill check: radiograph, and what does it show?' : 'Fill check: what does the fill show?'
+      }
       hint="Before cutting: the cones can still come out and the fill be redone."
     >
       {needsRadiograph && (
         <Answers>
-          <Answer tone={radiographTaken ? 'plain' : 'primary'} disabled={radiographTaken}
-            onTap={() => rec('radiograph.taken', { purpose: 'fill-check' }, 'fill-check radiograph', 'Taken')}>
+          <Answer
+            tone={radiographTaken ? 'plain' : 'primary'}
+            disabled={radiographTaken}
+            onTap={() => rec('radiograph.taken', { purpose: 'fill-check' }, 'fill-check radiograph', 'Taken')}
+          >
             {radiographTaken ? '✓ Radiograph taken' : 'Radiograph taken'}
           </Answer>
         </Answers>
       )}
       <div className="mt-3" />
       <ChipGroup label="Length of the fill">
-        {LENGTHS.map(([k, l]) => <Chip key={k} selected={length === k} onTap={() => assess(k, voids)}>{l}</Chip>)}
+        {LENGTHS.map(([k, l]) => (
+          <Chip key={k} selected={length === k} onTap={() => assess(k, voids)}>
+            {l}
+          </Chip>
+        ))}
       </ChipGroup>
       <ChipGroup label="Voids">
-        <Chip selected={voids === false} onTap={() => assess(length, false)}>None</Chip>
-        <Chip selected={voids === true} onTap={() => assess(length, true)}>Seen</Chip>
+        <Chip selected={voids === false} onTap={() => assess(length, false)}>
+          None
+        </Chip>
+        <Chip selected={voids === true} onTap={() => assess(length, true)}>
+          Seen
+        </Chip>
       </ChipGroup>
       {!radiographTaken && (
         <Answers>
@@ -58,13 +76,26 @@ export function SearCard({ rec, setting }: CardProps) {
     void rec('gp.seared', data, 'sear-off', cej !== undefined ? `${where}, ${mm(cej)} mm` : where);
   };
   return (
-    <StepCard title="Where did you sear off the gutta-percha?" hint={tooth ? 'Optional: the level relative to the CEJ (+ below, − above), then where.' : undefined}>
+    <StepCard
+      title="Where did you sear off the gutta-percha?"
+      hint={tooth ? 'Optional: the level relative to the CEJ (+ below, − above), then where.' : undefined}
+    >
       {tooth && (
-        <RulerStrip label="Level relative to the CEJ" centre={0.5} span={2.5} min={-2} max={3} selected={cej}
-          onTap={(v) => setCej(cej === v ? undefined : v)} testId="ruler-cej" />
+        <RulerStrip
+          label="Level relative to the CEJ"
+          centre={0.5}
+          span={2.5}
+          min={-2}
+          max={3}
+          selected={cej}
+          onTap={(v) => setCej(cej === v ? undefined : v)}
+          testId="ruler-cej"
+        />
       )}
       <Answers>
-        <Answer tone="primary" onTap={() => sear(true)}>At the orifice</Answer>
+        <Answer tone="primary" onTap={() => sear(true)}>
+          At the orifice
+        </Answer>
         <Answer onTap={() => sear(false)}>Elsewhere</Answer>
       </Answers>
     </StepCard>
@@ -74,7 +105,11 @@ export function SearCard({ rec, setting }: CardProps) {
 export function CompactCard({ rec }: CardProps) {
   return (
     <StepCard title="Compact the warm gutta-percha vertically" hint="With the plugger, at the sear level.">
-      <Answers><Answer tone="primary" onTap={() => rec('gp.compacted', {}, 'vertical compaction', 'Done')}>Done</Answer></Answers>
+      <Answers>
+        <Answer tone="primary" onTap={() => rec('gp.compacted', {}, 'vertical compaction', 'Done')}>
+          Done
+        </Answer>
+      </Answers>
     </StepCard>
   );
 }
@@ -84,18 +119,33 @@ export function CleanCard({ rec }: CardProps) {
   return (
     <StepCard title="Clean the sealer from the chamber" hint="Before the access is restored.">
       <ChipGroup label="Cleaned with">
-        <Chip selected={agent === 'alcohol'} onTap={() => setAgent('alcohol')}>Alcohol</Chip>
-        <Chip selected={agent === 'other'} onTap={() => setAgent('other')}>Other</Chip>
+        <Chip selected={agent === 'alcohol'} onTap={() => setAgent('alcohol')}>
+          Alcohol
+        </Chip>
+        <Chip selected={agent === 'other'} onTap={() => setAgent('other')}>
+          Other
+        </Chip>
       </ChipGroup>
-      <Answers><Answer tone="primary" onTap={() => rec('chamber.cleaned', { agent }, 'chamber cleaned', 'Done')}>Done</Answer></Answers>
+      <Answers>
+        <Answer tone="primary" onTap={() => rec('chamber.cleaned', { agent }, 'chamber cleaned', 'Done')}>
+          Done
+        </Answer>
+      </Answers>
     </StepCard>
   );
 }
 
 export function DoneCard({ canal, onFinishTooth }: CardProps & { onFinishTooth: () => void }) {
   return (
-    <StepCard title={`Canal ${canal.name} is filled`} hint="Fill the other canals, then finish the tooth and submit it for review.">
-      <Answers><Answer tone="primary" onTap={onFinishTooth}>Finish the tooth</Answer></Answers>
+    <StepCard
+      title={`Canal ${canal.name} is filled`}
+      hint="Fill the other canals, then finish the tooth and submit it for review."
+    >
+      <Answers>
+        <Answer tone="primary" onTap={onFinishTooth}>
+          Finish the tooth
+        </Answer>
+      </Answers>
     </StepCard>
   );
 }

@@ -9,9 +9,14 @@ export function SeatCard({ canal, rec }: CardProps) {
   const seat = (result: 'seated' | 'advances' | 'short', label: string) =>
     rec('seat.checked', { fileSize: canal.mafSize, lengthMm: canal.cwlMm, result }, 'seat check', label);
   return (
-    <StepCard title="Does the MAF seat at the CWL and hold?" hint={`MAF ${canal.mafSize} at ${mm(canal.cwlMm)} mm, light apical pressure.`}>
+    <StepCard
+      title="Does the MAF seat at the CWL and hold?"
+      hint={`MAF ${canal.mafSize} at ${mm(canal.cwlMm)} mm, light apical pressure.`}
+    >
       <Answers>
-        <Answer tone="primary" onTap={() => seat('seated', 'Seats and holds')}>Seats and holds</Answer>
+        <Answer tone="primary" onTap={() => seat('seated', 'Seats and holds')}>
+          Seats and holds
+        </Answer>
         <Answer onTap={() => seat('advances', 'Goes past')}>Goes past</Answer>
         <Answer onTap={() => seat('short', 'Short of length')}>Short of length</Answer>
       </Answers>
@@ -22,9 +27,16 @@ export function SeatCard({ canal, rec }: CardProps) {
 export function TaperCard({ canal, rec, centre }: CardProps & { centre: number }) {
   const spreader = canal.spreader ?? 'MF';
   return (
-    <StepCard title="Taper check: how deep does the spreader go?" hint={`Spreader ${spreader}; it should reach within 1 mm of the CWL (${mm(canal.cwlMm)} mm).`}>
-      <RulerStrip label="Spreader depth" centre={centre} expected={centre}
-        onTap={(v) => rec('taper.checked', { spreader, depthMm: v }, 'taper check', `${mm(v)} mm`)} />
+    <StepCard
+      title="Taper check: how deep does the spreader go?"
+      hint={`Spreader ${spreader}; it should reach within 1 mm of the CWL (${mm(canal.cwlMm)} mm).`}
+    >
+      <RulerStrip
+        label="Spreader depth"
+        centre={centre}
+        expected={centre}
+        onTap={(v) => rec('taper.checked', { spreader, depthMm: v }, 'taper check', `${mm(v)} mm`)}
+      />
     </StepCard>
   );
 }
@@ -34,17 +46,40 @@ const PURPOSE_TITLE = {
   'cone-fit': 'Cone-fit radiograph: taken with the master cone in place?',
 };
 
-export function RadiographCard({ rec, purpose, retake }: CardProps & { purpose: 'maf' | 'cone-fit'; retake?: boolean }) {
+export function RadiographCard({
+  rec,
+  purpose,
+  retake,
+}: CardProps & { purpose: 'maf' | 'cone-fit'; retake?: boolean }) {
   return (
-    <StepCard title={PURPOSE_TITLE[purpose]} hint={retake ? 'The cone was refitted by 1 mm or more: take it again.' : 'Attach the image later from the workstation.'}>
+    <StepCard
+      title={PURPOSE_TITLE[purpose]}
+      hint={
+        retake
+          ? 'The cone was refitted by 1 mm or more: take it again.'
+          : 'Attach the image later from the workstation.'
+      }
+    >
       <Answers>
-        <Answer tone="primary" onTap={() => rec('radiograph.taken', { purpose }, `${purpose === 'maf' ? 'MAF' : 'cone-fit'} radiograph`, 'Taken')}>Taken</Answer>
+        <Answer
+          tone="primary"
+          onTap={() =>
+            rec('radiograph.taken', { purpose }, `${purpose === 'maf' ? 'MAF' : 'cone-fit'} radiograph`, 'Taken')
+          }
+        >
+          Taken
+        </Answer>
       </Answers>
     </StepCard>
   );
 }
 
-const SOLUTIONS = [['naocl', 'NaOCl'], ['edta', 'EDTA'], ['saline', 'Saline'], ['chlorhexidine', 'CHX']] as const;
+const SOLUTIONS = [
+  ['naocl', 'NaOCl'],
+  ['edta', 'EDTA'],
+  ['saline', 'Saline'],
+  ['chlorhexidine', 'CHX'],
+] as const;
 
 export function RinseCard({ rec }: CardProps) {
   const [picked, setPicked] = useState<string[]>(['naocl', 'edta']);
@@ -52,11 +87,27 @@ export function RinseCard({ rec }: CardProps) {
   return (
     <StepCard title="Final rinse: which solutions?" hint="Sodium hypochlorite, then EDTA for the smear layer.">
       <ChipGroup label="Solutions">
-        {SOLUTIONS.map(([key, label]) => <Chip key={key} selected={picked.includes(key)} onTap={() => toggle(key)}>{label}</Chip>)}
+        {SOLUTIONS.map(([key, label]) => (
+          <Chip key={key} selected={picked.includes(key)} onTap={() => toggle(key)}>
+            {label}
+          </Chip>
+        ))}
       </ChipGroup>
       <Answers>
-        <Answer tone="primary" disabled={picked.length === 0}
-          onTap={() => rec('canal.rinsed', { solutions: picked }, 'final rinse', SOLUTIONS.filter(([k]) => picked.includes(k)).map(([, l]) => l).join(' + '))}>
+        <Answer
+          tone="primary"
+          disabled={picked.length === 0}
+          onTap={() =>
+            rec(
+              'canal.rinsed',
+              { solutions: picked },
+              'final rinse',
+              SOLUTIONS.filter(([k]) => picked.includes(k))
+                .map(([, l]) => l)
+                .join(' + '),
+            )
+          }
+        >
           Done
         </Answer>
       </Answers>
@@ -69,12 +120,23 @@ const POINTS = ['fine', 'medium', 'coarse'] as const;
 export function DryCard({ canal, rec, centre }: CardProps & { centre: number }) {
   const [point, setPoint] = useState<(typeof POINTS)[number]>('medium');
   return (
-    <StepCard title="Dry: paper points measured to what length?" hint={`Points must not pass the CWL (${mm(canal.cwlMm)} mm).`}>
+    <StepCard
+      title="Dry: paper points measured to what length?"
+      hint={`Points must not pass the CWL (${mm(canal.cwlMm)} mm).`}
+    >
       <ChipGroup label="Paper point size">
-        {POINTS.map((p) => <Chip key={p} selected={point === p} onTap={() => setPoint(p)}>{p}</Chip>)}
+        {POINTS.map((p) => (
+          <Chip key={p} selected={point === p} onTap={() => setPoint(p)}>
+            {p}
+          </Chip>
+        ))}
       </ChipGroup>
-      <RulerStrip label="Paper point length" centre={centre} expected={centre}
-        onTap={(v) => rec('canal.dried', { pointSize: point, measuredMm: v }, 'paper points', `${mm(v)} mm`)} />
+      <RulerStrip
+        label="Paper point length"
+        centre={centre}
+        expected={centre}
+        onTap={(v) => rec('canal.dried', { pointSize: point, measuredMm: v }, 'paper points', `${mm(v)} mm`)}
+      />
     </StepCard>
   );
 }
@@ -89,35 +151,66 @@ export function MasterCard({ canal, rec, centre, refit }: CardProps & { centre: 
     void rec('master.fitted', data, `master cone ${size}${reachedLength ? '' : ' (short)'}`, `${mm(length)} mm`);
   };
   return (
-    <StepCard title={refit ? 'Fit a master cone again: size and length?' : 'Master cone: size and length, did it reach?'}
-      hint={`Mark it at the reference point; the CWL is ${mm(canal.cwlMm)} mm.`}>
+    <StepCard
+      title={refit ? 'Fit a master cone again: size and length?' : 'Master cone: size and length, did it reach?'}
+      hint={`Mark it at the reference point; the CWL is ${mm(canal.cwlMm)} mm.`}
+    >
       <ChipGroup label="Cone size">
-        {sizesAround(canal.mafSize, ISO_SIZES).map((s) => <IsoChip key={s} size={s} selected={size === s} onTap={() => setSize(s)} />)}
+        {sizesAround(canal.mafSize, ISO_SIZES).map((s) => (
+          <IsoChip key={s} size={s} selected={size === s} onTap={() => setSize(s)} />
+        ))}
       </ChipGroup>
-      <RulerStrip label="Cone length" centre={centre} expected={centre} selected={length} onTap={setLength} testId="ruler-master" />
+      <RulerStrip
+        label="Cone length"
+        centre={centre}
+        expected={centre}
+        selected={length}
+        onTap={setLength}
+        testId="ruler-master"
+      />
       <ChipGroup label="Tug-back (optional)">
-        <Chip selected={tugBack === true} onTap={() => setTugBack(tugBack === true ? undefined : true)}>Yes</Chip>
-        <Chip selected={tugBack === false} onTap={() => setTugBack(tugBack === false ? undefined : false)}>No</Chip>
+        <Chip selected={tugBack === true} onTap={() => setTugBack(tugBack === true ? undefined : true)}>
+          Yes
+        </Chip>
+        <Chip selected={tugBack === false} onTap={() => setTugBack(tugBack === false ? undefined : false)}>
+          No
+        </Chip>
       </ChipGroup>
       <Answers>
-        <Answer tone="primary" disabled={length === undefined} onTap={() => fit(true)}>Reached</Answer>
-        <Answer tone="warn" disabled={length === undefined} onTap={() => fit(false)}>Short</Answer>
+        <Answer tone="primary" disabled={length === undefined} onTap={() => fit(true)}>
+          Reached
+        </Answer>
+        <Answer tone="warn" disabled={length === undefined} onTap={() => fit(false)}>
+          Short
+        </Answer>
       </Answers>
     </StepCard>
   );
 }
 
-export const SEALERS = [['epoxy-resin', 'Epoxy resin'], ['zoe', 'ZOE'], ['calcium-silicate', 'Calcium silicate'], ['calcium-hydroxide', 'Calcium hydroxide'], ['other', 'Other']] as const;
+export const SEALERS = [
+  ['epoxy-resin', 'Epoxy resin'],
+  ['zoe', 'ZOE'],
+  ['calcium-silicate', 'Calcium silicate'],
+  ['calcium-hydroxide', 'Calcium hydroxide'],
+  ['other', 'Other'],
+] as const;
 
 export function SealCard({ canal, rec }: CardProps) {
   const [sealer, setSealer] = useState(canal.sealer ?? 'epoxy-resin');
   return (
     <StepCard title="Coat the master cone with sealer and seat it" hint="Tap Seated once it is at length.">
       <ChipGroup label="Sealer">
-        {SEALERS.map(([k, l]) => <Chip key={k} selected={sealer === k} onTap={() => setSealer(k)}>{l}</Chip>)}
+        {SEALERS.map(([k, l]) => (
+          <Chip key={k} selected={sealer === k} onTap={() => setSealer(k)}>
+            {l}
+          </Chip>
+        ))}
       </ChipGroup>
       <Answers>
-        <Answer tone="primary" onTap={() => rec('master.seated', { sealer }, 'master cone seated', 'Seated')}>Seated</Answer>
+        <Answer tone="primary" onTap={() => rec('master.seated', { sealer }, 'master cone seated', 'Seated')}>
+          Seated
+        </Answer>
       </Answers>
     </StepCard>
   );

@@ -17,18 +17,30 @@ export function TopBar(props: { info: CaseInfo | null; onCases: () => void; onSi
       {demo && <DemoBanner />}
       <div className="px-3 py-2 flex flex-wrap items-center gap-2">
         <span className="font-bold text-2xl tracking-tight mr-2" role="img" aria-label="Coneline">
-          <span className="border-b-4 border-gutta pb-0.5" aria-hidden="true">Cone</span><span aria-hidden="true">line</span>
+          <span className="border-b-4 border-gutta pb-0.5" aria-hidden="true">
+            Cone
+          </span>
+          <span aria-hidden="true">line</span>
         </span>
         {info && (
           <div className="flex items-center gap-2" data-testid="case-label">
             <p className="text-lg">
               <span className="font-bold">{info.tooth ? `Tooth ${info.tooth}` : 'Block'}</span>
               {info.tooth && showUniversal && <span> (Universal {fdiToUniversal(info.tooth)})</span>}
-              <span className="text-muted"> · {SETTING_LABEL[info.setting]}{info.tooth ? ` · ${toothName(info.tooth)}` : ''}{info.chartRef ? ` · chart ${info.chartRef}` : ''}</span>
+              <span className="text-muted">
+                {' '}
+                · {SETTING_LABEL[info.setting]}
+                {info.tooth ? ` · ${toothName(info.tooth)}` : ''}
+                {info.chartRef ? ` · chart ${info.chartRef}` : ''}
+              </span>
             </p>
             {info.tooth && (
-              <button type="button" aria-pressed={showUniversal} onClick={toggleUniversal}
-                className="min-h-14 min-w-14 px-3 rounded-lg border-2 border-edge bg-white text-base">
+              <button
+                type="button"
+                aria-pressed={showUniversal}
+                onClick={toggleUniversal}
+                className="min-h-14 min-w-14 px-3 rounded-lg border-2 border-edge bg-white text-base"
+              >
                 Universal
               </button>
             )}
@@ -37,10 +49,20 @@ export function TopBar(props: { info: CaseInfo | null; onCases: () => void; onSi
         <div className="ml-auto flex flex-wrap items-center gap-2">
           <SyncBadge />
           {info && (
-            <button type="button" onClick={props.onCases} className="min-h-14 min-w-14 px-3 rounded-lg border-2 border-ink bg-white font-bold">Cases</button>
+            <button
+              type="button"
+              onClick={props.onCases}
+              className="min-h-14 min-w-14 px-3 rounded-lg border-2 border-ink bg-white font-bold"
+            >
+              Cases
+            </button>
           )}
           {user && (
-            <button type="button" onClick={props.onSignOut} className="min-h-14 min-w-14 px-3 rounded-lg border-2 border-ink bg-white">
+            <button
+              type="button"
+              onClick={props.onSignOut}
+              className="min-h-14 min-w-14 px-3 rounded-lg border-2 border-ink bg-white"
+            >
               <span className="font-bold">Sign out</span> <span className="text-sm">{user.name}</span>
             </button>
           )}

@@ -2,9 +2,16 @@ import type { CanalResult, LogEvent } from '../rules/core';
 import type { SyncResult } from './outbox';
 
 /** The signed-in user as the tablet keeps them. */
-export interface Me { id: number; email?: string; name: string; role: 'student' | 'attending' | 'director' }
+export interface Me {
+  id: number;
+  email?: string;
+  name: string;
+  role: 'student' | 'attending' | 'director';
+}
 /** What `/api/me` answers: the user, and whether the installation is in demo mode. */
-export interface MeAnswer extends Me { demo: boolean }
+export interface MeAnswer extends Me {
+  demo: boolean;
+}
 
 /** What came back: a value, "not signed in", or no answer at all (offline, server down). */
 export type Answer<T> =
@@ -27,7 +34,11 @@ async function call<T>(path: string, init?: RequestInit): Promise<Answer<T>> {
     }
   }
   let body: { error?: string; code?: string } = {};
-  try { body = (await res.json()) as { error?: string; code?: string }; } catch { /* no body */ }
+  try {
+    body = (await res.json()) as { error?: string; code?: string };
+  } catch {
+    /* no body */
+  }
   return { kind: 'status', status: res.status, error: body.error, ...(body.code ? { code: body.code } : {}) };
 }
 
@@ -35,7 +46,10 @@ export function fetchMe(): Promise<Answer<MeAnswer>> {
   return call<MeAnswer>('/api/me');
 }
 
-export interface SyncAnswer { results: SyncResult[]; canals: CanalResult[] }
+export interface SyncAnswer {
+  results: SyncResult[];
+  canals: CanalResult[];
+}
 
 /** POSTs a batch as JSON (the server requires it, and checks Origin too); `userId` (the outbox's owner) makes the server refuse it under anyone else's session. */
 export function postSync(deviceId: string, events: LogEvent[], userId?: number): Promise<Answer<SyncAnswer>> {
@@ -60,6 +74,8 @@ export function fetchCases(): Promise<Answer<{ cases: CaseSummary[] }>> {
   return call('/api/cases');
 }
 
-export function fetchCase(caseId: string): Promise<Answer<{ caseId: string; events: LogEvent[]; canals: CanalResult[] }>> {
+export function fetchCase(
+  caseId: string,
+): Promise<Answer<{ caseId: string; events: LogEvent[]; canals: CanalResult[] }>> {
   return call(`/api/cases/${encodeURIComponent(caseId)}`);
 }

@@ -26,10 +26,15 @@ function openDb(): Promise<IDBDatabase> {
     };
     dbp = promisifyRequest(req).then((db) => {
       // Another tab upgrading or deleting the database: let go so it can proceed.
-      db.onversionchange = () => { db.close(); dbp = null; };
+      db.onversionchange = () => {
+        db.close();
+        dbp = null;
+      };
       return db;
     });
-    dbp.catch(() => { dbp = null; });
+    dbp.catch(() => {
+      dbp = null;
+    });
   }
   return dbp;
 }

@@ -55,7 +55,8 @@ export function nextCard(allEvents: FlowEvent[], canalId: string, ctx: FlowConte
   const live = liveEvents(allEvents).filter((e) => e.canalId === canalId);
   const tooth = ctx.setting !== 'block';
   const cwl = ctx.cwlMm;
-  const has = (type: string, pred: (e: FlowEvent) => boolean = () => true) => live.some((e) => e.type === type && pred(e));
+  const has = (type: string, pred: (e: FlowEvent) => boolean = () => true) =>
+    live.some((e) => e.type === type && pred(e));
   const radiograph = (purpose: string) => (e: FlowEvent) => field(e, 'purpose') === purpose;
   const indexOf = (e: FlowEvent | undefined) => (e ? live.indexOf(e) : -1);
 
@@ -72,7 +73,9 @@ export function nextCard(allEvents: FlowEvent[], canalId: string, ctx: FlowConte
   }
   if (tooth) {
     const firstFit = indexOf(fits[0]);
-    const radiographAfterFit = live.some((e, i) => i > firstFit && e.type === 'radiograph.taken' && field(e, 'purpose') === 'cone-fit');
+    const radiographAfterFit = live.some(
+      (e, i) => i > firstFit && e.type === 'radiograph.taken' && field(e, 'purpose') === 'cone-fit',
+    );
     if (!radiographAfterFit || ctx.findingCodes.includes('cone-fit-retake-needed')) {
       return { kind: 'radiograph', purpose: 'cone-fit' };
     }
@@ -89,7 +92,9 @@ export function nextCard(allEvents: FlowEvent[], canalId: string, ctx: FlowConte
     live.some((e) => e.type === 'radiograph.taken' && field(e, 'purpose') === 'fill-check' && afterCompaction(e));
 
   if (!fillStarted) {
-    const removed = new Set(steps.filter((e) => e.type === 'accessory.removed').map((e) => field<string>(e, 'eventId')));
+    const removed = new Set(
+      steps.filter((e) => e.type === 'accessory.removed').map((e) => field<string>(e, 'eventId')),
+    );
     const kept = steps.filter((e) => e.type === 'accessory.placed' && !removed.has(e.id)).length;
     const spreaders = steps.filter((e) => e.type === 'spreader.placed');
     const lastDepth = field<number>(spreaders[spreaders.length - 1], 'depthMm');
@@ -121,7 +126,9 @@ export function nextCard(allEvents: FlowEvent[], canalId: string, ctx: FlowConte
   }
 
   if (!has('fill.assessed')) {
-    const taken = live.some((e) => e.type === 'radiograph.taken' && field(e, 'purpose') === 'fill-check' && afterCompaction(e));
+    const taken = live.some(
+      (e) => e.type === 'radiograph.taken' && field(e, 'purpose') === 'fill-check' && afterCompaction(e),
+    );
     return { kind: 'fill', radiographTaken: taken, needsRadiograph: tooth };
   }
   if (!has('gp.seared')) return { kind: 'sear' };
@@ -141,5 +148,19 @@ export function rulerValues(centre: number, span: number, min = 0.5, max = 40): 
 
 /** The step titles used in the stepper's progress line. */
 export const STEP_ORDER: CardKind[] = [
-  'seat', 'taper', 'radiograph', 'rinse', 'dry', 'master', 'seal', 'spreader', 'accessory', 'remove', 'fill', 'sear', 'compact', 'clean', 'done',
+  'seat',
+  'taper',
+  'radiograph',
+  'rinse',
+  'dry',
+  'master',
+  'seal',
+  'spreader',
+  'accessory',
+  'remove',
+  'fill',
+  'sear',
+  'compact',
+  'clean',
+  'done',
 ];

@@ -122,7 +122,11 @@ export async function refuseOrphans(userId: number): Promise<number> {
   });
   if (orphans.length === 0) return 0;
   await events()('readwrite', (store) => {
-    for (const row of orphans) store.put({ ...row, state: 'rejected', error: 'The answer it withdraws was refused, so there is nothing to withdraw.' }, [userId, row.event.id]);
+    for (const row of orphans)
+      store.put(
+        { ...row, state: 'rejected', error: 'The answer it withdraws was refused, so there is nothing to withdraw.' },
+        [userId, row.event.id],
+      );
     return promisifyRequest(store.transaction);
   });
   return orphans.length;
@@ -149,7 +153,10 @@ export function dismissRejected(userId: number, eventId: string): Promise<void> 
 }
 
 /** The server's latest verdict per canal. */
-export interface ServerCanal { result: CanalResult; receivedAt: string }
+export interface ServerCanal {
+  result: CanalResult;
+  receivedAt: string;
+}
 
 export function putServerCanals(userId: number, canals: CanalResult[]): Promise<void> {
   const receivedAt = new Date().toISOString();
@@ -185,8 +192,17 @@ export async function clearUserIfSynced(userId: number): Promise<boolean> {
   const unsettled = (await listEvents(userId)).some((r) => r.state === 'queued' || r.state === 'rejected');
   if (unsettled) return false;
   const range = userRange(userId);
-  await events()('readwrite', (store) => { store.delete(range); return promisifyRequest(store.transaction); });
-  await server()('readwrite', (store) => { store.delete(range); return promisifyRequest(store.transaction); });
-  await meta()('readwrite', (store) => { store.delete(range); return promisifyRequest(store.transaction); });
+  await events()('readwrite', (store) => {
+    store.delete(range);
+    return promisifyRequest(store.transaction);
+  });
+  await server()('readwrite', (store) => {
+    store.delete(range);
+    return promisifyRequest(store.transaction);
+  });
+  await meta()('readwrite', (store) => {
+    store.delete(range);
+    return promisifyRequest(store.transaction);
+  });
   return true;
 }

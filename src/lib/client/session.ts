@@ -50,7 +50,9 @@ export async function resolveIdentity(): Promise<Identity> {
     await delMeta(LAST_USER);
     return { user: null, source: null, signedOut: true, demo };
   }
-  return last ? { user: last, source: 'tablet', signedOut: false, demo } : { user: null, source: null, signedOut: false, demo };
+  return last
+    ? { user: last, source: 'tablet', signedOut: false, demo }
+    : { user: null, source: null, signedOut: false, demo };
 }
 
 /** After a sign-out anywhere in this browser: nobody works offline as that user any more. */

@@ -3,21 +3,47 @@ import { parseEvent, type LogEvent } from '../rules/core';
 import { fetchCase } from './api';
 import { newId } from './ids';
 import {
-  dismissRejected, getMeta, importSynced, listEvents, listServerCanals, putEvent, putServerCanals, setMeta,
-  type ServerCanal, type StoredEvent,
+  dismissRejected,
+  getMeta,
+  importSynced,
+  listEvents,
+  listServerCanals,
+  putEvent,
+  putServerCanals,
+  setMeta,
+  type ServerCanal,
+  type StoredEvent,
 } from './outbox';
 import { deviceId as loadDeviceId, leave, resolveIdentity, type Identity } from './session';
 import { SyncLoop, type SyncStatus } from './syncLoop';
 import { limitRefusal } from './views';
 
 /** What the undo strip offers to withdraw: a recorded event, or a tablet-only mark. */
-export interface UndoItem { key: number; label: string; eventId?: string; canalId?: string; finishedCanal?: string }
+export interface UndoItem {
+  key: number;
+  label: string;
+  eventId?: string;
+  canalId?: string;
+  finishedCanal?: string;
+}
 /** The value just entered, shown big beside its verdict. */
-export interface LastEntry { eventId: string; canalId?: string; label: string; value: string }
+export interface LastEntry {
+  eventId: string;
+  canalId?: string;
+  label: string;
+  value: string;
+}
 
-export interface RecordOptions { canalId?: string; label: string; value?: string; caseId?: string }
+export interface RecordOptions {
+  canalId?: string;
+  label: string;
+  value?: string;
+  caseId?: string;
+}
 
-interface Marks { finished: Record<string, boolean> }
+interface Marks {
+  finished: Record<string, boolean>;
+}
 
 export interface ChairsideState {
   phase: 'loading' | 'ready';
@@ -68,7 +94,9 @@ export const useChairside = create<ChairsideState>((set, get) => {
   };
   const kickSoon = () => {
     if (kickTimer) clearTimeout(kickTimer);
-    kickTimer = setTimeout(() => { void loop?.kick(false); }, 600);
+    kickTimer = setTimeout(() => {
+      void loop?.kick(false);
+    }, 600);
   };
 
   return {
@@ -124,7 +152,14 @@ export const useChairside = create<ChairsideState>((set, get) => {
       const id = uid();
       const caseId = opts.caseId ?? get().caseId;
       if (id === null || !caseId) return null;
-      const raw = { id: newId(), caseId, ...(opts.canalId ? { canalId: opts.canalId } : {}), type, at: new Date().toISOString(), data };
+      const raw = {
+        id: newId(),
+        caseId,
+        ...(opts.canalId ? { canalId: opts.canalId } : {}),
+        type,
+        at: new Date().toISOString(),
+        data,
+      };
       const parsed = parseEvent(raw);
       if (!parsed.ok) {
         set({ error: `Not saved: ${parsed.error}` });
@@ -143,8 +178,13 @@ export const useChairside = create<ChairsideState>((set, get) => {
           rows: [...s.rows, row],
           error: null,
           saved: s.saved + 1,
-          undo: type === 'event.voided' ? null : { key: ++undoKey, label: opts.label, eventId: event.id, canalId: opts.canalId },
-          last: opts.value ? { eventId: event.id, canalId: opts.canalId, label: opts.label, value: opts.value } : s.last,
+          undo:
+            type === 'event.voided'
+              ? null
+              : { key: ++undoKey, label: opts.label, eventId: event.id, canalId: opts.canalId },
+          last: opts.value
+            ? { eventId: event.id, canalId: opts.canalId, label: opts.label, value: opts.value }
+            : s.last,
         }));
       } catch (e) {
         set({ error: `Not saved on this tablet: ${e instanceof Error ? e.message : String(e)}` });
@@ -158,13 +198,23 @@ export const useChairside = create<ChairsideState>((set, get) => {
       const u = get().undo;
       if (!u) return;
       set({ undo: null });
-      if (u.finishedCanal) { get().setFinished(u.finishedCanal, false); set({ undo: null }); return; }
+      if (u.finishedCanal) {
+        get().setFinished(u.finishedCanal, false);
+        set({ undo: null });
+        return;
+      }
       if (!u.eventId) return;
       const target = get().rows.find((r) => r.event.id === u.eventId)?.event;
       if (!target) return;
-      await get().record('event.voided', { eventId: u.eventId, reason: 'Undone on the tablet' }, {
-        caseId: target.caseId, canalId: target.canalId, label: `Undone: ${u.label}`,
-      });
+      await get().record(
+        'event.voided',
+        { eventId: u.eventId, reason: 'Undone on the tablet' },
+        {
+          caseId: target.caseId,
+          canalId: target.canalId,
+          label: `Undone: ${u.label}`,
+        },
+      );
       if (get().last?.eventId === u.eventId) set({ last: null });
     },
 
@@ -205,7 +255,12 @@ export const useChairside = create<ChairsideState>((set, get) => {
       if (id === null) return false;
       const answer = await fetchCase(caseId);
       if (answer.kind !== 'ok') {
-        set({ error: answer.kind === 'offline' ? 'No network: the case cannot be fetched now.' : `The server answered ${answer.status}.` });
+        set({
+          error:
+            answer.kind === 'offline'
+              ? 'No network: the case cannot be fetched now.'
+              : `The server answered ${answer.status}.`,
+        });
         return false;
       }
       await importSynced(id, answer.value.events);

@@ -50,7 +50,8 @@ export async function syncOnce(userId: number, deviceId: string, deps: SyncDeps 
   const queued = await listQueued(userId);
   const me = await deps.whoIsSignedIn();
   if (me.kind === 'offline') return { kind: 'offline' };
-  if (me.kind === 'status') return me.status === 401 ? { kind: 'signed-out' } : { kind: 'error', status: me.status, error: me.error };
+  if (me.kind === 'status')
+    return me.status === 401 ? { kind: 'signed-out' } : { kind: 'error', status: me.status, error: me.error };
   if (me.value.id !== userId) return { kind: 'other-user', signedInId: me.value.id };
 
   const total = { sent: 0, stored: 0, rejected: 0, retry: 0 };

@@ -32,14 +32,18 @@ export class SyncLoop {
   private failures = 0;
   private nextAt = 0;
   private status: SyncStatus = { phase: 'idle' };
-  private readonly onOnline = () => { void this.kick(true); };
+  private readonly onOnline = () => {
+    void this.kick(true);
+  };
 
   constructor(private readonly opts: SyncLoopOptions) {}
 
   start(): void {
     if (this.timer) return;
     window.addEventListener('online', this.onOnline);
-    this.timer = setInterval(() => { void this.kick(false); }, this.opts.intervalMs ?? 15_000);
+    this.timer = setInterval(() => {
+      void this.kick(false);
+    }, this.opts.intervalMs ?? 15_000);
     void this.kick(true);
   }
 
@@ -55,10 +59,16 @@ export class SyncLoop {
   }
 
   async kick(manual = false): Promise<void> {
-    if (this.running) { this.again = true; return; }
+    if (this.running) {
+      this.again = true;
+      return;
+    }
     const userId = this.opts.userId();
     if (userId === null) return;
-    if (typeof navigator !== 'undefined' && navigator.onLine === false) { this.set({ phase: 'offline' }); return; }
+    if (typeof navigator !== 'undefined' && navigator.onLine === false) {
+      this.set({ phase: 'offline' });
+      return;
+    }
     if (!manual && Date.now() < this.nextAt) return;
     if (manual) this.failures = 0;
     this.running = true;
@@ -72,7 +82,10 @@ export class SyncLoop {
     this.running = false;
     this.settle(outcome);
     this.opts.onOutcome(outcome);
-    if (this.again) { this.again = false; void this.kick(false); }
+    if (this.again) {
+      this.again = false;
+      void this.kick(false);
+    }
   }
 
   private settle(o: SyncOutcome): void {

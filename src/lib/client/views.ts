@@ -7,16 +7,25 @@ export function caseEvents(rows: StoredEvent[], caseId: string | null): LogEvent
   return rows.filter((r) => r.event.caseId === caseId && r.state !== 'rejected').map((r) => r.event);
 }
 
-export interface ShownResult { result: CanalResult | null; source: 'server' | 'tablet' }
+export interface ShownResult {
+  result: CanalResult | null;
+  source: 'server' | 'tablet';
+}
 
 /**
  * The canal's state and findings to show: the server's verdict once everything of the case
  * has reached it, the rules core's local verdict while anything is still waiting.
  */
 export function shownResult(
-  rows: StoredEvent[], server: Record<string, ServerCanal>, events: LogEvent[], caseId: string, canalId: string,
+  rows: StoredEvent[],
+  server: Record<string, ServerCanal>,
+  events: LogEvent[],
+  caseId: string,
+  canalId: string,
 ): ShownResult {
-  const waiting = rows.some((r) => r.state === 'queued' && r.event.caseId === caseId && (!r.event.canalId || r.event.canalId === canalId));
+  const waiting = rows.some(
+    (r) => r.state === 'queued' && r.event.caseId === caseId && (!r.event.canalId || r.event.canalId === canalId),
+  );
   const fromServer = server[canalId]?.result;
   if (!waiting && fromServer) return { result: fromServer, source: 'server' };
   return { result: evaluateCanal(canalId, events), source: 'tablet' };

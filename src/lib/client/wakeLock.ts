@@ -17,7 +17,9 @@ export function keepAwake(): () => void {
       sentinel = null;
     }
   };
-  const onVisible = () => { if (document.visibilityState === 'visible' && (!sentinel || sentinel.released)) void request(); };
+  const onVisible = () => {
+    if (document.visibilityState === 'visible' && (!sentinel || sentinel.released)) void request();
+  };
   document.addEventListener('visibilitychange', onVisible);
   void request();
   return () => {

@@ -27,7 +27,12 @@ export function workingLengthByDiscrepancy(
   resorption: 'none' | 'bone' | 'bone-and-root' = 'none',
 ): { actualLengthMm: number; workingLengthMm: number } {
   const allowance = RESORPTION_ALLOWANCE_MM[resorption];
-  if (!(fileLengthMm > 0) || !Number.isFinite(fileLengthMm) || !Number.isFinite(tipToApexMm) || allowance === undefined) {
+  if (
+    !(fileLengthMm > 0) ||
+    !Number.isFinite(fileLengthMm) ||
+    !Number.isFinite(tipToApexMm) ||
+    allowance === undefined
+  ) {
     return { actualLengthMm: Number.NaN, workingLengthMm: Number.NaN };
   }
   const actual = fileLengthMm + tipToApexMm;
@@ -50,7 +55,11 @@ export function workingLengthFromApexLocator(readingMm: number, backOffMm = 0.5)
  * length × radiographic tooth length ÷ radiographic file length, rounded to 0.01 mm.
  * Example: 20.0 × 25.0 ÷ 22.0 = 22.73 mm. NaN unless all three are positive.
  */
-export function proportionalLength(actualFileMm: number, radiographicToothMm: number, radiographicFileMm: number): number {
+export function proportionalLength(
+  actualFileMm: number,
+  radiographicToothMm: number,
+  radiographicFileMm: number,
+): number {
   const all = [actualFileMm, radiographicToothMm, radiographicFileMm];
   if (!all.every((v) => Number.isFinite(v) && v > 0)) return Number.NaN;
   return roundToHundredth((actualFileMm * radiographicToothMm) / radiographicFileMm);
@@ -63,7 +72,12 @@ export function proportionalLength(actualFileMm: number, radiographicToothMm: nu
  * recapitulate) is not listed. Stops early at size 140 or before a length under 0.5 mm;
  * [] for a MAF that is not an ISO size, a step other than 0.5 or 1.0, or an invalid CWL.
  */
-export function stepBackSchedule(mafSize: string, cwlMm: number, stepMm: 0.5 | 1.0, count = 3): { size: string; lengthMm: number }[] {
+export function stepBackSchedule(
+  mafSize: string,
+  cwlMm: number,
+  stepMm: 0.5 | 1.0,
+  count = 3,
+): { size: string; lengthMm: number }[] {
   if (!isIsoSize(mafSize) || (stepMm !== 0.5 && stepMm !== 1.0)) return [];
   if (!Number.isFinite(cwlMm) || cwlMm <= 0 || !Number.isInteger(count) || count < 0) return [];
   const start = ISO_SIZES.indexOf(mafSize);

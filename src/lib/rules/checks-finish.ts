@@ -19,31 +19,58 @@ function searChecks(v: CanalView): Finding[] {
   // No spreader placement at all: compaction never started, so it is not complete either
   // (rules.md speaks only of "the last spreader depth"; this is our reading).
   if (last === undefined) {
-    out.push(raise('compaction-incomplete', `Sear-off is recorded with no spreader placement before it: tell your attending; compaction goes on until the spreader no longer passes the coronal third.${estimate}`, sear.e.id));
+    out.push(
+      raise(
+        'compaction-incomplete',
+        `Sear-off is recorded with no spreader placement before it: tell your attending; compaction goes on until the spreader no longer passes the coronal third.${estimate}`,
+        sear.e.id,
+      ),
+    );
   } else if (gt(last.e.data.depthMm, v.thirds.coronalEndMm)) {
-    out.push(raise('compaction-incomplete',
-      `At sear-off the spreader still reached ${fmtMm(last.e.data.depthMm)}, past the end of the coronal third at ${fmtMm(v.thirds.coronalEndMm)}: tell your attending; place more cones until the spreader no longer passes the coronal third.${estimate}`,
-      sear.e.id));
+    out.push(
+      raise(
+        'compaction-incomplete',
+        `At sear-off the spreader still reached ${fmtMm(last.e.data.depthMm)}, past the end of the coronal third at ${fmtMm(v.thirds.coronalEndMm)}: tell your attending; place more cones until the spreader no longer passes the coronal third.${estimate}`,
+        sear.e.id,
+      ),
+    );
   }
   if (!v.isTooth) return out;
   const remaining = kept.filter((a) => a.i < sear.i).length;
   if (remaining < v.tol.minAccessoryCones) {
-    out.push(raise('few-accessory-cones',
-      `Only ${remaining} accessory cone${remaining === 1 ? '' : 's'} remained at sear-off, fewer than the usual ${v.tol.minAccessoryCones}: check the fill-check radiograph for even density with your attending.`,
-      sear.e.id));
+    out.push(
+      raise(
+        'few-accessory-cones',
+        `Only ${remaining} accessory cone${remaining === 1 ? '' : 's'} remained at sear-off, fewer than the usual ${v.tol.minAccessoryCones}: check the fill-check radiograph for even density with your attending.`,
+        sear.e.id,
+      ),
+    );
   }
   const lastCone = latest(kept);
-  const fillShots = v.of('radiograph.taken').filter((r) => r.e.data.purpose === 'fill-check' && r.i > (lastCone?.i ?? -1));
+  const fillShots = v
+    .of('radiograph.taken')
+    .filter((r) => r.e.data.purpose === 'fill-check' && r.i > (lastCone?.i ?? -1));
   if (fillShots.length === 0) {
-    out.push(raise('fill-check-radiograph-missing', 'Sear-off is recorded with no fill-check radiograph after the last accessory cone: record it if you took one, or tell your attending.', sear.e.id));
+    out.push(
+      raise(
+        'fill-check-radiograph-missing',
+        'Sear-off is recorded with no fill-check radiograph after the last accessory cone: record it if you took one, or tell your attending.',
+        sear.e.id,
+      ),
+    );
   }
   const cej = sear.e.data.relativeToCejMm;
   if (cej !== undefined && lt(cej, 0) && v.tooth !== undefined) {
     const anterior = toothGroup(v.tooth).anterior;
-    out.push(raise('sear-above-cej', anterior
-      ? `You seared ${fmtMm(-cej)} above the CEJ of an anterior tooth, where sealer left in the crown can stain it: take the level to the CEJ or below, as your attending advises.`
-      : `You seared ${fmtMm(-cej)} above the CEJ: take the level to the orifice or the CEJ, as your attending advises.`,
-    sear.e.id));
+    out.push(
+      raise(
+        'sear-above-cej',
+        anterior
+          ? `You seared ${fmtMm(-cej)} above the CEJ of an anterior tooth, where sealer left in the crown can stain it: take the level to the CEJ or below, as your attending advises.`
+          : `You seared ${fmtMm(-cej)} above the CEJ: take the level to the orifice or the CEJ, as your attending advises.`,
+        sear.e.id,
+      ),
+    );
   }
   return out;
 }
@@ -56,13 +83,31 @@ function fillChecks(v: CanalView): Finding[] {
   // The contract's categories are drawn at 2 mm: "short-over-2" proves the fill is more than
   // the limit short only while the limit is 2 mm or less, so only then is it raised.
   if (length === 'short-over-2' && v.tol.fillShortLimitMm <= 2) {
-    out.push(raise('fill-short', `The fill ends more than ${fmtMm(v.tol.fillShortLimitMm)} short of the apex: show the radiograph to your attending, who decides whether to redo the fill.`, fill.e.id));
+    out.push(
+      raise(
+        'fill-short',
+        `The fill ends more than ${fmtMm(v.tol.fillShortLimitMm)} short of the apex: show the radiograph to your attending, who decides whether to redo the fill.`,
+        fill.e.id,
+      ),
+    );
   }
   if (length === 'beyond') {
-    out.push(raise('fill-beyond', 'The fill extends beyond the apex: show the radiograph to your attending, who decides whether to redo the fill.', fill.e.id));
+    out.push(
+      raise(
+        'fill-beyond',
+        'The fill extends beyond the apex: show the radiograph to your attending, who decides whether to redo the fill.',
+        fill.e.id,
+      ),
+    );
   }
   if (voids) {
-    out.push(raise('fill-voids', 'The fill check shows voids: show the radiograph to your attending, who decides whether to redo the fill.', fill.e.id));
+    out.push(
+      raise(
+        'fill-voids',
+        'The fill check shows voids: show the radiograph to your attending, who decides whether to redo the fill.',
+        fill.e.id,
+      ),
+    );
   }
   return out;
 }
@@ -74,10 +119,22 @@ function submissionChecks(v: CanalView): Finding[] {
   // From everything recorded: a restoration or radiograph recorded after submission counts.
   // restoration-missing is not marked "tooth" in rules.md, so it applies to a training block too.
   if (v.of('access.restored').length === 0) {
-    out.push(raise('restoration-missing', "The case was submitted but this canal's access is not restored: record the restoration, or tell your attending.", submitted.e.id));
+    out.push(
+      raise(
+        'restoration-missing',
+        "The case was submitted but this canal's access is not restored: record the restoration, or tell your attending.",
+        submitted.e.id,
+      ),
+    );
   }
   if (v.isTooth && v.of('radiograph.taken').every((r) => r.e.data.purpose !== 'post-op')) {
-    out.push(raise('postop-radiograph-missing', 'The case was submitted without a post-operative radiograph: take one and record it, or tell your attending.', submitted.e.id));
+    out.push(
+      raise(
+        'postop-radiograph-missing',
+        'The case was submitted without a post-operative radiograph: take one and record it, or tell your attending.',
+        submitted.e.id,
+      ),
+    );
   }
   return out;
 }

@@ -12,12 +12,18 @@ function fieldName(path: readonly (string | number)[]): string {
 
 function describeExpected(expected: string): string {
   switch (expected) {
-    case 'number': return 'a number';
-    case 'string': return 'text';
-    case 'boolean': return 'true or false';
-    case 'object': return 'an object';
-    case 'array': return 'a list';
-    default: return expected;
+    case 'number':
+      return 'a number';
+    case 'string':
+      return 'text';
+    case 'boolean':
+      return 'true or false';
+    case 'object':
+      return 'an object';
+    case 'array':
+      return 'a list';
+    default:
+      return expected;
   }
 }
 
@@ -42,9 +48,13 @@ export function formatZodError(err: z.ZodError): string {
     case z.ZodIssueCode.invalid_enum_value:
       return `${name} must be one of ${issue.options.join(', ')}`;
     case z.ZodIssueCode.too_small:
-      return issue.type === 'string' ? `${name} must not be empty` : `${name} must be at least ${String(issue.minimum)}`;
+      return issue.type === 'string'
+        ? `${name} must not be empty`
+        : `${name} must be at least ${String(issue.minimum)}`;
     case z.ZodIssueCode.too_big:
-      return issue.type === 'string' ? `${name} must be at most ${String(issue.maximum)} characters` : `${name} must be at most ${String(issue.maximum)}`;
+      return issue.type === 'string'
+        ? `${name} must be at most ${String(issue.maximum)} characters`
+        : `${name} must be at most ${String(issue.maximum)}`;
     case z.ZodIssueCode.unrecognized_keys:
       return `${name} has fields that are not allowed: ${issue.keys.join(', ')}`;
     default:

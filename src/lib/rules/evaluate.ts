@@ -25,7 +25,11 @@ const SEVERITY_RANK: Record<Severity, number> = { stop: 0, caution: 1, note: 2 }
  * `canal.added` is missing. Findings are listed stops first, then cautions, then notes, each
  * group in the order of the events that raised them. Never throws.
  */
-export function evaluateCanal(canalId: string, events: readonly LogEvent[], tolerances?: Partial<Tolerances>): CanalResult | null {
+export function evaluateCanal(
+  canalId: string,
+  events: readonly LogEvent[],
+  tolerances?: Partial<Tolerances>,
+): CanalResult | null {
   try {
     const timeline = canalTimeline(canalId, events);
     if (timeline === null) return null;
@@ -34,10 +38,12 @@ export function evaluateCanal(canalId: string, events: readonly LogEvent[], tole
     const position = new Map(view.events.map((e, i) => [e.id, i]));
     const findings = [...setupChecks(view), ...compactionChecks(view), ...finishChecks(view)]
       .map((f, n) => ({ f, n }))
-      .sort((a, b) =>
-        SEVERITY_RANK[a.f.severity] - SEVERITY_RANK[b.f.severity] ||
-        (position.get(a.f.eventId ?? '') ?? -1) - (position.get(b.f.eventId ?? '') ?? -1) ||
-        a.n - b.n)
+      .sort(
+        (a, b) =>
+          SEVERITY_RANK[a.f.severity] - SEVERITY_RANK[b.f.severity] ||
+          (position.get(a.f.eventId ?? '') ?? -1) - (position.get(b.f.eventId ?? '') ?? -1) ||
+          a.n - b.n,
+      )
       .map((x) => x.f);
     return { canalId, caseId: timeline.caseId, state: deriveState(view), findings };
   } catch {

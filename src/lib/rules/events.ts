@@ -6,10 +6,26 @@ import * as f from './fields';
 import type { Flatten, RecordOf, Shape } from './record';
 
 export const EVENT_TYPES = [
-  'case.opened', 'canal.added', 'canal.cwlCorrected', 'seat.checked', 'taper.checked',
-  'radiograph.taken', 'canal.rinsed', 'canal.dried', 'master.fitted', 'master.seated',
-  'spreader.placed', 'accessory.placed', 'accessory.removed', 'fill.assessed', 'gp.seared',
-  'gp.compacted', 'chamber.cleaned', 'access.restored', 'note.added', 'event.voided',
+  'case.opened',
+  'canal.added',
+  'canal.cwlCorrected',
+  'seat.checked',
+  'taper.checked',
+  'radiograph.taken',
+  'canal.rinsed',
+  'canal.dried',
+  'master.fitted',
+  'master.seated',
+  'spreader.placed',
+  'accessory.placed',
+  'accessory.removed',
+  'fill.assessed',
+  'gp.seared',
+  'gp.compacted',
+  'chamber.cleaned',
+  'access.restored',
+  'note.added',
+  'event.voided',
   'case.submitted',
 ] as const;
 export type EventType = (typeof EVENT_TYPES)[number];
@@ -42,22 +58,44 @@ export const DATA = {
     sealer: f.optionalOneOf('sealer', SEALERS),
   },
   'canal.cwlCorrected': { cwlMm: f.lengthMm('cwlMm'), reason: f.textMayBeEmpty('reason', TEXT_MAX) },
-  'seat.checked': { fileSize: f.size('fileSize'), lengthMm: f.lengthMm('lengthMm'), result: f.oneOf('result', ['seated', 'advances', 'short'] as const) },
+  'seat.checked': {
+    fileSize: f.size('fileSize'),
+    lengthMm: f.lengthMm('lengthMm'),
+    result: f.oneOf('result', ['seated', 'advances', 'short'] as const),
+  },
   'taper.checked': { spreader: f.size('spreader'), depthMm: f.lengthMm('depthMm') },
-  'radiograph.taken': { purpose: f.oneOf('purpose', RADIOGRAPH_PURPOSES), radiographId: f.optionalText('radiographId', 200) },
+  'radiograph.taken': {
+    purpose: f.oneOf('purpose', RADIOGRAPH_PURPOSES),
+    radiographId: f.optionalText('radiographId', 200),
+  },
   'canal.rinsed': { solutions: f.solutions('solutions') },
-  'canal.dried': { pointSize: f.oneOf('pointSize', ['fine', 'medium', 'coarse'] as const), measuredMm: f.lengthMm('measuredMm') },
-  'master.fitted': { size: f.size('size'), lengthMm: f.lengthMm('lengthMm'), reachedLength: f.bool('reachedLength'), tugBack: f.optionalBool('tugBack') },
+  'canal.dried': {
+    pointSize: f.oneOf('pointSize', ['fine', 'medium', 'coarse'] as const),
+    measuredMm: f.lengthMm('measuredMm'),
+  },
+  'master.fitted': {
+    size: f.size('size'),
+    lengthMm: f.lengthMm('lengthMm'),
+    reachedLength: f.bool('reachedLength'),
+    tugBack: f.optionalBool('tugBack'),
+  },
   'master.seated': { sealer: f.oneOf('sealer', SEALERS) },
   'spreader.placed': { spreader: f.size('spreader'), depthMm: f.lengthMm('depthMm') },
-  'accessory.placed': { size: f.size('size'), lengthMm: f.lengthMm('lengthMm'), reachedLength: f.bool('reachedLength') },
+  'accessory.placed': {
+    size: f.size('size'),
+    lengthMm: f.lengthMm('lengthMm'),
+    reachedLength: f.bool('reachedLength'),
+  },
   'accessory.removed': { eventId: f.uuid('eventId'), reason: f.textMayBeEmpty('reason', TEXT_MAX) },
   'fill.assessed': { length: f.oneOf('length', FILL_LENGTHS), voids: f.bool('voids') },
   'gp.seared': { atOrifice: f.bool('atOrifice'), relativeToCejMm: f.optionalCejMm('relativeToCejMm') },
   'gp.compacted': {},
   // Not listed among the contract's free-text fields: trimmed, 1–60 characters (our choice).
   'chamber.cleaned': { agent: f.text('agent', 60) },
-  'access.restored': { kind: f.oneOf('kind', ['temporary', 'permanent'] as const), material: f.optionalText('material', TEXT_MAX) },
+  'access.restored': {
+    kind: f.oneOf('kind', ['temporary', 'permanent'] as const),
+    material: f.optionalText('material', TEXT_MAX),
+  },
   'note.added': { text: f.text('text', TEXT_MAX) },
   'event.voided': { eventId: f.uuid('eventId'), reason: f.textMayBeEmpty('reason', TEXT_MAX) },
   'case.submitted': {},
@@ -70,7 +108,12 @@ export const CASE_LEVEL_ONLY: ReadonlySet<EventType> = new Set<EventType>(['case
  * issue's list leaves it out: without it a case-level `access.restored` or post-op radiograph
  * could never be undone. A void only counts for an event in its own scope (see timeline.ts).
  */
-export const CASE_OR_CANAL: ReadonlySet<EventType> = new Set<EventType>(['access.restored', 'radiograph.taken', 'note.added', 'event.voided']);
+export const CASE_OR_CANAL: ReadonlySet<EventType> = new Set<EventType>([
+  'access.restored',
+  'radiograph.taken',
+  'note.added',
+  'event.voided',
+]);
 
 /** The fields every event carries besides its type and data. */
 export const ENVELOPE = {
@@ -80,7 +123,9 @@ export const ENVELOPE = {
   at: f.instant('at'),
 } satisfies Shape;
 
-type EventFields<T extends EventType> = Flatten<RecordOf<typeof ENVELOPE> & { type: T; data: RecordOf<(typeof DATA)[T]> }>;
+type EventFields<T extends EventType> = Flatten<
+  RecordOf<typeof ENVELOPE> & { type: T; data: RecordOf<(typeof DATA)[T]> }
+>;
 /** One event, validated and normalised: a union on `type` that narrows `data`. */
 export type LogEvent = { [T in EventType]: EventFields<T> }[EventType];
 export type EventOf<T extends EventType> = Extract<LogEvent, { type: T }>;

@@ -55,33 +55,44 @@ export const optionalOrificeMm = (name: string) => optionalField(mmCheck(name, 0
 /** relativeToCejMm: −5 to +5 mm in 0.5 mm steps (negative = above the CEJ). */
 export const optionalCejMm = (name: string) => optionalField(mmCheck(name, -5, 5));
 
-const sizeCheck = (name: string): Check<string> => (v) =>
-  normaliseSize(v) ?? no(`${name} must be ${SIZE_RULE_TEXT}`);
+const sizeCheck =
+  (name: string): Check<string> =>
+  (v) =>
+    normaliseSize(v) ?? no(`${name} must be ${SIZE_RULE_TEXT}`);
 export const size = (name: string) => field(name, sizeCheck(name));
 export const optionalSize = (name: string) => optionalField(sizeCheck(name));
 
 export function oneOf<const T extends readonly string[]>(name: string, values: T) {
   return field(name, (v): T[number] | Invalid =>
-    typeof v === 'string' && (values as readonly string[]).includes(v) ? (v as T[number]) : no(`${name} must be one of ${values.join(', ')}`),
+    typeof v === 'string' && (values as readonly string[]).includes(v)
+      ? (v as T[number])
+      : no(`${name} must be one of ${values.join(', ')}`),
   );
 }
 export function optionalOneOf<const T extends readonly string[]>(name: string, values: T) {
   return optionalField((v): T[number] | Invalid =>
-    typeof v === 'string' && (values as readonly string[]).includes(v) ? (v as T[number]) : no(`${name} must be one of ${values.join(', ')}`),
+    typeof v === 'string' && (values as readonly string[]).includes(v)
+      ? (v as T[number])
+      : no(`${name} must be one of ${values.join(', ')}`),
   );
 }
 
-const boolCheck = (name: string): Check<boolean> => (v) => (typeof v === 'boolean' ? v : no(`${name} must be true or false`));
+const boolCheck =
+  (name: string): Check<boolean> =>
+  (v) =>
+    typeof v === 'boolean' ? v : no(`${name} must be true or false`);
 export const bool = (name: string) => field(name, boolCheck(name));
 export const optionalBool = (name: string) => optionalField(boolCheck(name));
 
-const textCheck = (name: string, max: number, allowEmpty: boolean): Check<string> => (v) => {
-  if (typeof v !== 'string') return no(`${name} must be text`);
-  const s = v.trim();
-  if (!allowEmpty && s.length === 0) return no(`${name} must not be empty`);
-  if (s.length > max) return no(`${name} must be at most ${max.toLocaleString('en-GB')} characters`);
-  return s;
-};
+const textCheck =
+  (name: string, max: number, allowEmpty: boolean): Check<string> =>
+  (v) => {
+    if (typeof v !== 'string') return no(`${name} must be text`);
+    const s = v.trim();
+    if (!allowEmpty && s.length === 0) return no(`${name} must not be empty`);
+    if (s.length > max) return no(`${name} must be at most ${max.toLocaleString('en-GB')} characters`);
+    return s;
+  };
 /** Free text, trimmed and length-limited; required and not empty. */
 export const text = (name: string, max: number) => field(name, textCheck(name, max, false));
 /** Free text that must be present but may be empty (a reason the tablet may leave blank). */
@@ -89,8 +100,10 @@ export const textMayBeEmpty = (name: string, max: number) => field(name, textChe
 export const optionalText = (name: string, max: number) => optionalField(textCheck(name, max, true));
 
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
-const uuidCheck = (name: string): Check<string> => (v) =>
-  typeof v === 'string' && UUID.test(v) ? v.toLowerCase() : no(`${name} must be a UUID`);
+const uuidCheck =
+  (name: string): Check<string> =>
+  (v) =>
+    typeof v === 'string' && UUID.test(v) ? v.toLowerCase() : no(`${name} must be a UUID`);
 /** A UUID, lower-cased (UUIDs are case-insensitive; one spelling keeps duplicates recognisable). */
 export const uuid = (name: string) => field(name, uuidCheck(name));
 export const optionalUuid = (name: string) => optionalField(uuidCheck(name));
@@ -118,14 +131,19 @@ export const instant = (name: string) =>
       return no(`${name} must be an ISO 8601 instant with a time zone, such as 2026-12-02T09:41:07.250Z`);
     }
     if (LONG_FRACTION.test(v)) {
-      return no(`${name} may have at most ${AT_FRACTION_DIGITS} digits after the seconds (milliseconds), such as 2026-12-02T09:41:07.250Z`);
+      return no(
+        `${name} may have at most ${AT_FRACTION_DIGITS} digits after the seconds (milliseconds), such as 2026-12-02T09:41:07.250Z`,
+      );
     }
     return v;
   });
 
-export const FDI_RULE_TEXT = 'an FDI tooth number (quadrants 1–4 with teeth 1–8, or primary quadrants 5–8 with teeth 1–5)';
+export const FDI_RULE_TEXT =
+  'an FDI tooth number (quadrants 1–4 with teeth 1–8, or primary quadrants 5–8 with teeth 1–5)';
 export const optionalTooth = (name: string) =>
-  optionalField((v): number | Invalid => (typeof v === 'number' && isValidFdi(v) ? v : no(`${name} must be ${FDI_RULE_TEXT}`)));
+  optionalField((v): number | Invalid =>
+    typeof v === 'number' && isValidFdi(v) ? v : no(`${name} must be ${FDI_RULE_TEXT}`),
+  );
 
 /**
  * Preparation: "step-back" or a fixed taper written "0.02"–"0.12". A number such as 0.04 is

@@ -42,7 +42,12 @@ export interface TallyEvent {
 /** The limits' view of an event in the shape the rules and the wire use. */
 export function tallyEvent(e: { id: string; type: string; canalId?: string; data?: unknown }): TallyEvent {
   const target = (e.data as { eventId?: unknown } | undefined)?.eventId;
-  return { id: e.id, type: e.type, canalId: e.canalId ?? null, ...(e.type === 'event.voided' && typeof target === 'string' ? { eventId: target } : {}) };
+  return {
+    id: e.id,
+    type: e.type,
+    canalId: e.canalId ?? null,
+    ...(e.type === 'event.voided' && typeof target === 'string' ? { eventId: target } : {}),
+  };
 }
 
 /**
@@ -93,7 +98,8 @@ export class CaseTally {
       // A set-up, or a withdrawal of the withdrawal of one, may bring a canal into the case.
       const before = this.liveCanals().size;
       const after = standing([...this.setUps.values(), e]).size;
-      if (after > before && after > LIMITS.canalsPerCase) return { limit: 'canalsPerCase', error: LIMIT_MESSAGES.canalsPerCase };
+      if (after > before && after > LIMITS.canalsPerCase)
+        return { limit: 'canalsPerCase', error: LIMIT_MESSAGES.canalsPerCase };
     }
     return null;
   }

@@ -9,7 +9,10 @@ import { readEvent } from './read';
  * which is what formatZodError gives for the same event checked with eventSchema (every
  * message is ours, never one of zod's generic ones).
  */
-export function parseEvent(raw: unknown, now: Date = new Date()): { ok: true; event: LogEvent } | { ok: false; error: string } {
+export function parseEvent(
+  raw: unknown,
+  now: Date = new Date(),
+): { ok: true; event: LogEvent } | { ok: false; error: string } {
   try {
     const r = readEvent(raw);
     if (!r.ok) return { ok: false, error: r.issues[0]?.message ?? 'the event is not valid' };

@@ -9,7 +9,9 @@ export const NOT_AN_OBJECT = 'the event must be an object';
 /** What is wrong with `type` when it names no event type. */
 export function typeProblem(type: unknown): string {
   if (type === undefined || type === null) return 'type is required';
-  return typeof type === 'string' ? `unknown event type ${JSON.stringify(type)}` : 'type must be an event type such as "spreader.placed"';
+  return typeof type === 'string'
+    ? `unknown event type ${JSON.stringify(type)}`
+    : 'type must be an event type such as "spreader.placed"';
 }
 
 export type Reading = { ok: true; event: LogEvent } | { ok: false; issues: Issue[] };
@@ -23,12 +25,20 @@ const TYPES: ReadonlySet<unknown> = new Set(EVENT_TYPES);
 export function readEvent(raw: unknown): Reading {
   const received = parsedType(raw);
   if (received !== 'object') {
-    return { ok: false, issues: [{ code: 'invalid_type', expected: 'object', received, path: [], message: NOT_AN_OBJECT }] };
+    return {
+      ok: false,
+      issues: [{ code: 'invalid_type', expected: 'object', received, path: [], message: NOT_AN_OBJECT }],
+    };
   }
   const input = raw as Record<string, unknown>;
   const type = input.type;
   if (!TYPES.has(type)) {
-    return { ok: false, issues: [{ code: 'invalid_union_discriminator', options: [...EVENT_TYPES], path: ['type'], message: typeProblem(type) }] };
+    return {
+      ok: false,
+      issues: [
+        { code: 'invalid_union_discriminator', options: [...EVENT_TYPES], path: ['type'], message: typeProblem(type) },
+      ],
+    };
   }
   const issues: Issue[] = [];
   const event = readTyped(input, type as EventType, issues);
@@ -59,7 +69,9 @@ export function readTyped(input: Record<string, unknown>, type: EventType, issue
   const fields = readRecord(DATA[type], data as Record<string, unknown>, issues, ['data']);
   const { id, caseId, canalId, at } = head;
   // Keys in the contract's order; canalId only when it was sent, as z.object kept it.
-  const e = ('canalId' in head ? { id, caseId, canalId, type, at, data: fields } : { id, caseId, type, at, data: fields }) as LogEvent;
+  const e = (
+    'canalId' in head ? { id, caseId, canalId, type, at, data: fields } : { id, caseId, type, at, data: fields }
+  ) as LogEvent;
   crossFieldChecks(e, issues);
   return e;
 }
@@ -69,8 +81,7 @@ function crossFieldChecks(e: LogEvent, issues: Issue[]): void {
   if (CASE_LEVEL_ONLY.has(e.type)) {
     if (e.canalId !== undefined) issue(issues, `canalId must be absent on ${e.type}, which is case-level`, ['canalId']);
   } else if (e.canalId === undefined) {
-    const caseLevelAllowed =
-      e.type === 'radiograph.taken' ? e.data.purpose === 'post-op' : CASE_OR_CANAL.has(e.type);
+    const caseLevelAllowed = e.type === 'radiograph.taken' ? e.data.purpose === 'post-op' : CASE_OR_CANAL.has(e.type);
     if (!caseLevelAllowed) {
       const what = e.type === 'radiograph.taken' ? `radiograph.taken with purpose ${e.data.purpose}` : e.type;
       issue(issues, `canalId is required on ${what}`, ['canalId']);
@@ -78,9 +89,15 @@ function crossFieldChecks(e: LogEvent, issues: Issue[]): void {
   }
   if (e.type === 'case.opened') {
     const { setting, tooth, chartRef } = e.data;
-    if (setting !== 'block' && tooth === undefined) issue(issues, `tooth is required for ${setting === 'patient' ? 'a patient' : 'an extracted tooth'}`, ['data', 'tooth']);
-    if (setting === 'patient' && (chartRef === undefined || chartRef === '')) issue(issues, 'chartRef is required for a patient', ['data', 'chartRef']);
-    if (setting !== 'patient' && chartRef !== undefined) issue(issues, 'chartRef is allowed only for a patient', ['data', 'chartRef']);
+    if (setting !== 'block' && tooth === undefined)
+      issue(issues, `tooth is required for ${setting === 'patient' ? 'a patient' : 'an extracted tooth'}`, [
+        'data',
+        'tooth',
+      ]);
+    if (setting === 'patient' && (chartRef === undefined || chartRef === ''))
+      issue(issues, 'chartRef is required for a patient', ['data', 'chartRef']);
+    if (setting !== 'patient' && chartRef !== undefined)
+      issue(issues, 'chartRef is allowed only for a patient', ['data', 'chartRef']);
   }
 }
 

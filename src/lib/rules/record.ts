@@ -4,8 +4,26 @@ import { Invalid, readField, type Field } from './fields';
 
 /** zod's names for what a value is (z.getParsedType), as an issue reports them. */
 export type ParsedType =
-  | 'string' | 'nan' | 'number' | 'integer' | 'float' | 'boolean' | 'date' | 'bigint' | 'symbol' | 'function'
-  | 'undefined' | 'null' | 'array' | 'object' | 'unknown' | 'promise' | 'void' | 'never' | 'map' | 'set';
+  | 'string'
+  | 'nan'
+  | 'number'
+  | 'integer'
+  | 'float'
+  | 'boolean'
+  | 'date'
+  | 'bigint'
+  | 'symbol'
+  | 'function'
+  | 'undefined'
+  | 'null'
+  | 'array'
+  | 'object'
+  | 'unknown'
+  | 'promise'
+  | 'void'
+  | 'never'
+  | 'map'
+  | 'set';
 
 /**
  * One problem with an event, shaped as the zod issue eventSchema reports for it, so that
@@ -39,7 +57,12 @@ export const UNREADABLE: unknown = Object.freeze({ status: 'aborted' });
  * every field in order, unknown keys dropped, a key sent as undefined or null kept (as
  * undefined). Each problem is added to `issues` at `[...path, key]`.
  */
-export function readRecord<S extends Shape>(shape: S, input: Record<string, unknown>, issues: Issue[], path: readonly string[]): RecordOf<S> {
+export function readRecord<S extends Shape>(
+  shape: S,
+  input: Record<string, unknown>,
+  issues: Issue[],
+  path: readonly string[],
+): RecordOf<S> {
   const out: Record<string, unknown> = {};
   for (const key in shape) {
     let value = readField(shape[key] as Field<unknown>, input[key]);
@@ -55,13 +78,20 @@ export function readRecord<S extends Shape>(shape: S, input: Record<string, unkn
 /** What zod 3 calls a value (its getParsedType, copied): "object" only for a plain kind of object. */
 export function parsedType(v: unknown): ParsedType {
   switch (typeof v) {
-    case 'undefined': return 'undefined';
-    case 'string': return 'string';
-    case 'number': return Number.isNaN(v) ? 'nan' : 'number';
-    case 'boolean': return 'boolean';
-    case 'function': return 'function';
-    case 'bigint': return 'bigint';
-    case 'symbol': return 'symbol';
+    case 'undefined':
+      return 'undefined';
+    case 'string':
+      return 'string';
+    case 'number':
+      return Number.isNaN(v) ? 'nan' : 'number';
+    case 'boolean':
+      return 'boolean';
+    case 'function':
+      return 'function';
+    case 'bigint':
+      return 'bigint';
+    case 'symbol':
+      return 'symbol';
     case 'object': {
       if (Array.isArray(v)) return 'array';
       if (v === null) return 'null';
@@ -72,6 +102,7 @@ export function parsedType(v: unknown): ParsedType {
       if (v instanceof Date) return 'date';
       return 'object';
     }
-    default: return 'unknown';
+    default:
+      return 'unknown';
   }
 }

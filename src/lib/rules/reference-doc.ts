@@ -17,7 +17,7 @@ export const READINGS: readonly string[] = [
   'The fill categories are fixed by the contract at 2 mm: `fill-short` is raised for "short-over-2" while `fillShortLimitMm` is 2 or less, and not when a director raises the limit (the category cannot show the fill passed a larger limit).',
   '`sear-above-cej` is raised for any level above the CEJ, at the orifice or not; `restoration-missing` applies to training blocks too (rules.md does not mark it "tooth").',
   'Sizes: a number is read as the ISO size it names (35 → "35", 6 → "06"); a string must be written as the contract writes it ("06", not "6"; designations in capitals). All size fields accept designations, as the input errors allow, though a file (`mafSize`, `fileSize`) is in practice an ISO size.',
-  'Free text is trimmed; `name`, `referencePoint`, `text` and `agent` must not be empty; `reason` must be present but may be empty. `chartRef` (≤ 64) and `agent` (≤ 60) are not among the contract\'s free-text fields and take our own limits. A tooth on a training block is allowed and ignored by the rules.',
+  "Free text is trimmed; `name`, `referencePoint`, `text` and `agent` must not be empty; `reason` must be present but may be empty. `chartRef` (≤ 64) and `agent` (≤ 60) are not among the contract's free-text fields and take our own limits. A tooth on a training block is allowed and ignored by the rules.",
   'Status is the furthest step any event reaches: set-up (canal.added) → verified (seat or taper check, rinse, drying, working-length or MAF radiograph) → cone fitted (master cone fit or cone-fit radiograph) → compacting (seating, spreader, accessory cone) → filled (fill assessment or fill-check radiograph) → seared (sear-off, vertical compaction, chamber cleaned) → restored → submitted.',
 ];
 
@@ -55,7 +55,9 @@ export function renderRulesDoc(): string {
     '',
     '| setting | default | source |',
     '| --- | --- | --- |',
-    ...(Object.keys(DEFAULT_TOLERANCES) as (keyof Tolerances)[]).map((k) => `| \`${k}\` | ${formatDefault(k)} | ${cell(TOLERANCE_SOURCES[k])} |`),
+    ...(Object.keys(DEFAULT_TOLERANCES) as (keyof Tolerances)[]).map(
+      (k) => `| \`${k}\` | ${formatDefault(k)} | ${cell(TOLERANCE_SOURCES[k])} |`,
+    ),
     '',
     '## How this module reads rules.md',
     '',

@@ -12,7 +12,14 @@ import type { Issue } from './record';
 
 /** The keys of an event of `type`, as zod picks them out; readTyped checks their values. */
 function envelopeOf<T extends EventType>(type: T) {
-  return z.object({ id: z.unknown(), caseId: z.unknown(), canalId: z.unknown(), type: z.literal(type), at: z.unknown(), data: z.unknown() });
+  return z.object({
+    id: z.unknown(),
+    caseId: z.unknown(),
+    canalId: z.unknown(),
+    type: z.literal(type),
+    at: z.unknown(),
+    data: z.unknown(),
+  });
 }
 type Envelope = ReturnType<typeof envelopeOf<EventType>>;
 
@@ -20,7 +27,9 @@ const byType = z.discriminatedUnion('type', EVENT_TYPES.map(envelopeOf) as [Enve
   errorMap: (issue, ctx) => {
     if (issue.code === z.ZodIssueCode.invalid_union_discriminator) {
       const data: unknown = ctx.data;
-      return { message: typeProblem(data !== null && typeof data === 'object' ? (data as { type?: unknown }).type : undefined) };
+      return {
+        message: typeProblem(data !== null && typeof data === 'object' ? (data as { type?: unknown }).type : undefined),
+      };
     }
     if (issue.code === z.ZodIssueCode.invalid_type) return { message: NOT_AN_OBJECT };
     return { message: ctx.defaultError };

@@ -3,7 +3,9 @@
 
 /** ISO sizes as written: 06, 08, 10, 15–60 by 5, 70–140 by 10 (ISO 3630-1 as summarised — partly). */
 export const ISO_SIZES: readonly string[] = Object.freeze([
-  '06', '08', '10',
+  '06',
+  '08',
+  '10',
   ...range(15, 60, 5).map(String),
   ...range(70, 140, 10).map(String),
 ]);

@@ -4,7 +4,8 @@ import { isCompactionComplete, type CanalThirds } from './thirds';
 import { instant } from './timeline';
 import { latest, latestBefore, type CanalView } from './view';
 
-export type CanalStatus = 'set-up' | 'verified' | 'cone-fitted' | 'compacting' | 'filled' | 'seared' | 'restored' | 'submitted';
+export type CanalStatus =
+  'set-up' | 'verified' | 'cone-fitted' | 'compacting' | 'filled' | 'seared' | 'restored' | 'submitted';
 
 export interface CanalState {
   status: CanalStatus;
@@ -20,8 +21,22 @@ export interface CanalState {
   orificeDepthMm?: number;
   setting: 'block' | 'extracted' | 'patient';
   tooth?: number;
-  masterCone: { eventId: string; size: string; lengthMm: number; reachedLength: boolean; tugBack?: boolean; seated: boolean } | null;
-  accessories: { eventId: string; size: string; lengthMm: number; reachedLength: boolean; removed: boolean; spreaderDepthMm?: number }[];
+  masterCone: {
+    eventId: string;
+    size: string;
+    lengthMm: number;
+    reachedLength: boolean;
+    tugBack?: boolean;
+    seated: boolean;
+  } | null;
+  accessories: {
+    eventId: string;
+    size: string;
+    lengthMm: number;
+    reachedLength: boolean;
+    removed: boolean;
+    spreaderDepthMm?: number;
+  }[];
   accessoryCones: number;
   conesWithdrawn: number;
   spreaderDepths: number[];
@@ -39,19 +54,40 @@ export interface CanalState {
 
 // The furthest step any event reaches sets the status. Notes, CWL corrections and post-op
 // radiographs move nothing; approved / returned come from sign-off records on the server.
-const STATUS_ORDER: readonly CanalStatus[] = ['set-up', 'verified', 'cone-fitted', 'compacting', 'filled', 'seared', 'restored', 'submitted'];
+const STATUS_ORDER: readonly CanalStatus[] = [
+  'set-up',
+  'verified',
+  'cone-fitted',
+  'compacting',
+  'filled',
+  'seared',
+  'restored',
+  'submitted',
+];
 const STATUS_OF: Partial<Record<EventType, CanalStatus>> = {
   'canal.added': 'set-up',
-  'seat.checked': 'verified', 'taper.checked': 'verified', 'canal.rinsed': 'verified', 'canal.dried': 'verified',
+  'seat.checked': 'verified',
+  'taper.checked': 'verified',
+  'canal.rinsed': 'verified',
+  'canal.dried': 'verified',
   'master.fitted': 'cone-fitted',
-  'master.seated': 'compacting', 'spreader.placed': 'compacting', 'accessory.placed': 'compacting', 'accessory.removed': 'compacting',
+  'master.seated': 'compacting',
+  'spreader.placed': 'compacting',
+  'accessory.placed': 'compacting',
+  'accessory.removed': 'compacting',
   'fill.assessed': 'filled',
-  'gp.seared': 'seared', 'gp.compacted': 'seared', 'chamber.cleaned': 'seared',
+  'gp.seared': 'seared',
+  'gp.compacted': 'seared',
+  'chamber.cleaned': 'seared',
   'access.restored': 'restored',
   'case.submitted': 'submitted',
 };
 const RADIOGRAPH_STATUS: Record<RadiographPurpose, CanalStatus | undefined> = {
-  'working-length': 'verified', maf: 'verified', 'cone-fit': 'cone-fitted', 'fill-check': 'filled', 'post-op': undefined,
+  'working-length': 'verified',
+  maf: 'verified',
+  'cone-fit': 'cone-fitted',
+  'fill-check': 'filled',
+  'post-op': undefined,
 };
 
 function statusOf(v: CanalView): CanalStatus {
@@ -72,7 +108,13 @@ export function deriveState(v: CanalView): CanalState {
   const sear = latest(v.of('gp.seared'))?.e.data;
   const taper = latestBefore(v.of('taper.checked'), v.lastSeat?.i);
   const spreaderDepths = spreaders.map((s) => s.e.data.depthMm);
-  const radiographs: CanalState['radiographs'] = { 'working-length': [], maf: [], 'cone-fit': [], 'fill-check': [], 'post-op': [] };
+  const radiographs: CanalState['radiographs'] = {
+    'working-length': [],
+    maf: [],
+    'cone-fit': [],
+    'fill-check': [],
+    'post-op': [],
+  };
   for (const r of v.of('radiograph.taken')) radiographs[r.e.data.purpose].push(r.e.id);
   const first = v.events[0];
   const last = latest(v.events);
@@ -85,16 +127,26 @@ export function deriveState(v: CanalView): CanalState {
     mafSize: setup.mafSize,
     preparation: setup.preparation,
     setting: v.caseOpened.data.setting,
-    masterCone: fit === undefined ? null : {
-      eventId: fit.e.id, size: fit.e.data.size, lengthMm: fit.e.data.lengthMm, reachedLength: fit.e.data.reachedLength,
-      ...(fit.e.data.tugBack === undefined ? {} : { tugBack: fit.e.data.tugBack }),
-      seated: v.lastSeat !== undefined && v.lastSeat.i > fit.i,
-    },
+    masterCone:
+      fit === undefined
+        ? null
+        : {
+            eventId: fit.e.id,
+            size: fit.e.data.size,
+            lengthMm: fit.e.data.lengthMm,
+            reachedLength: fit.e.data.reachedLength,
+            ...(fit.e.data.tugBack === undefined ? {} : { tugBack: fit.e.data.tugBack }),
+            seated: v.lastSeat !== undefined && v.lastSeat.i > fit.i,
+          },
     accessories: placed.map((a) => {
       const depth = latestBefore(spreaders, a.i)?.e.data.depthMm;
       return {
-        eventId: a.e.id, size: a.e.data.size, lengthMm: a.e.data.lengthMm, reachedLength: a.e.data.reachedLength,
-        removed: v.withdrawn.has(a.e.id), ...(depth === undefined ? {} : { spreaderDepthMm: depth }),
+        eventId: a.e.id,
+        size: a.e.data.size,
+        lengthMm: a.e.data.lengthMm,
+        reachedLength: a.e.data.reachedLength,
+        removed: v.withdrawn.has(a.e.id),
+        ...(depth === undefined ? {} : { spreaderDepthMm: depth }),
       };
     }),
     accessoryCones: placed.filter((a) => !v.withdrawn.has(a.e.id)).length,
@@ -107,13 +159,24 @@ export function deriveState(v: CanalView): CanalState {
     eventCount: v.events.length,
   };
   const optional = {
-    spreader: setup.spreader, accessorySize: setup.accessorySize,
+    spreader: setup.spreader,
+    accessorySize: setup.accessorySize,
     sealer: latest(v.of('master.seated'))?.e.data.sealer ?? setup.sealer,
-    orificeDepthMm: setup.orificeDepthMm, tooth: v.tooth, taperCheckDepthMm: taper?.e.data.depthMm,
-    searLevel: sear === undefined ? undefined : { atOrifice: sear.atOrifice, ...(sear.relativeToCejMm === undefined ? {} : { relativeToCejMm: sear.relativeToCejMm }) },
-    firstEventAt: first?.at, lastEventAt: last?.at,
+    orificeDepthMm: setup.orificeDepthMm,
+    tooth: v.tooth,
+    taperCheckDepthMm: taper?.e.data.depthMm,
+    searLevel:
+      sear === undefined
+        ? undefined
+        : {
+            atOrifice: sear.atOrifice,
+            ...(sear.relativeToCejMm === undefined ? {} : { relativeToCejMm: sear.relativeToCejMm }),
+          },
+    firstEventAt: first?.at,
+    lastEventAt: last?.at,
   };
   // Absent values are left out rather than set to undefined, so the state compares and serialises cleanly.
-  for (const [k, val] of Object.entries(optional)) if (val !== undefined) (state as unknown as Record<string, unknown>)[k] = val;
+  for (const [k, val] of Object.entries(optional))
+    if (val !== undefined) (state as unknown as Record<string, unknown>)[k] = val;
   return state;
 }

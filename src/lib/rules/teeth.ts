@@ -23,14 +23,22 @@ export function fdiToUniversal(n: number): string {
   const q = Math.floor(n / 10);
   const t = n % 10;
   switch (q) {
-    case 1: return String(9 - t);
-    case 2: return String(8 + t);
-    case 3: return String(25 - t);
-    case 4: return String(24 + t);
-    case 5: return PRIMARY_LETTERS.charAt(5 - t);
-    case 6: return PRIMARY_LETTERS.charAt(4 + t);
-    case 7: return PRIMARY_LETTERS.charAt(15 - t);
-    default: return PRIMARY_LETTERS.charAt(14 + t);
+    case 1:
+      return String(9 - t);
+    case 2:
+      return String(8 + t);
+    case 3:
+      return String(25 - t);
+    case 4:
+      return String(24 + t);
+    case 5:
+      return PRIMARY_LETTERS.charAt(5 - t);
+    case 6:
+      return PRIMARY_LETTERS.charAt(4 + t);
+    case 7:
+      return PRIMARY_LETTERS.charAt(15 - t);
+    default:
+      return PRIMARY_LETTERS.charAt(14 + t);
   }
 }
 
@@ -78,7 +86,17 @@ export function toothGroup(n: number): ToothGroup {
   return { arch, kind, anterior: t <= 3, primary, side };
 }
 
-const PERMANENT_NAMES = ['', 'central incisor', 'lateral incisor', 'canine', 'first premolar', 'second premolar', 'first molar', 'second molar', 'third molar'];
+const PERMANENT_NAMES = [
+  '',
+  'central incisor',
+  'lateral incisor',
+  'canine',
+  'first premolar',
+  'second premolar',
+  'first molar',
+  'second molar',
+  'third molar',
+];
 const PRIMARY_NAMES = ['', 'central incisor', 'lateral incisor', 'canine', 'first molar', 'second molar'];
 
 /** Plain name of an FDI tooth, e.g. 36 → "mandibular left first molar", 54 → "maxillary right primary first molar"; "" when invalid. */

@@ -20,7 +20,11 @@ export interface CanalThirds {
  * A recorded depth is kept within [0, CWL] (a CWL corrected to above the orifice leaves no
  * canal to divide; the thirds then collapse onto the CWL rather than run backwards).
  */
-export function canalThirds(cwlMm: number, orificeDepthMm: number | undefined, fallbackStopDepthMm: number = DEFAULT_TOLERANCES.fallbackStopDepthMm): CanalThirds {
+export function canalThirds(
+  cwlMm: number,
+  orificeDepthMm: number | undefined,
+  fallbackStopDepthMm: number = DEFAULT_TOLERANCES.fallbackStopDepthMm,
+): CanalThirds {
   const cwl = Number.isFinite(cwlMm) && cwlMm > 0 ? cwlMm : 0;
   const s = Number.isFinite(fallbackStopDepthMm) ? fallbackStopDepthMm : DEFAULT_TOLERANCES.fallbackStopDepthMm;
   const estimated = orificeDepthMm === undefined || !Number.isFinite(orificeDepthMm);

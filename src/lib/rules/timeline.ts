@@ -20,9 +20,17 @@ export function compareEvents(a: LogEvent, b: LogEvent): number {
 function looksLikeEvent(e: unknown): e is LogEvent {
   if (e === null || typeof e !== 'object') return false;
   const r = e as Record<string, unknown>;
-  return typeof r.id === 'string' && typeof r.caseId === 'string' && typeof r.type === 'string' && TYPES.has(r.type) &&
+  return (
+    typeof r.id === 'string' &&
+    typeof r.caseId === 'string' &&
+    typeof r.type === 'string' &&
+    TYPES.has(r.type) &&
     (r.canalId === undefined || typeof r.canalId === 'string') &&
-    typeof r.at === 'string' && Number.isFinite(Date.parse(r.at)) && r.data !== null && typeof r.data === 'object';
+    typeof r.at === 'string' &&
+    Number.isFinite(Date.parse(r.at)) &&
+    r.data !== null &&
+    typeof r.data === 'object'
+  );
 }
 
 /** One event per id; where an id comes twice with different content, the same one is kept whatever the order. */

@@ -21,7 +21,8 @@ export const TOLERANCE_SOURCES: Record<keyof Tolerances, string> = {
     'Trade teaching (practice): the spreader reaches within 1 mm of the CWL; agrees with Allison, Weber & Walton, J Endod 1979 (seen) for step-back preparations, which found 2 mm or less enough in standardised ones: a disagreement, the stricter value is the default.',
   masterLengthMarginMm:
     'Trade teaching (practice): the master cone goes to the full CWL. One source seats it 0.5 mm short and a size larger: a disagreement; a 0.5 mm margin (one ruler step) accepts that practice.',
-  coneFitRetakeThresholdMm: 'Trade teaching (practice): retake the cone-fit radiograph when the cone is changed by 1 mm or more.',
+  coneFitRetakeThresholdMm:
+    'Trade teaching (practice): retake the cone-fit radiograph when the cone is changed by 1 mm or more.',
   firstSpreaderMarginMm: 'Trade teaching (practice): the first spreader placement reaches within 2 mm of the CWL.',
   accessoryLengthMarginMm:
     'Trade teaching (practice): each accessory cone is measured to the depth the spreader reached; the 0.5 mm margin is one ruler step (our judgement).',
@@ -30,7 +31,7 @@ export const TOLERANCE_SOURCES: Record<keyof Tolerances, string> = {
   fallbackStopDepthMm:
     'Trade teaching (practice): stop when the spreader no longer passes the coronal third, about 10–12 mm from a cusp reference in most teeth; the upper end is the default.',
   fillShortLimitMm:
-    'European Society of Endodontology quality guidelines, Int Endod J 2006 (seen, secondary); Jurič et al., Int Endod J 2024 (seen): a fill more than 2 mm short of the radiographic apex is under-filled. The contract\'s fill categories are drawn at this limit.',
+    "European Society of Endodontology quality guidelines, Int Endod J 2006 (seen, secondary); Jurič et al., Int Endod J 2024 (seen): a fill more than 2 mm short of the radiographic apex is under-filled. The contract's fill categories are drawn at this limit.",
 };
 
 export const DEFAULT_TOLERANCES: Tolerances = Object.freeze({

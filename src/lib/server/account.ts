@@ -29,7 +29,8 @@ export async function changePassword(
   if (!user) return { status: 404, body: { error: 'No such account.' } };
   // The current password is guessed no faster here than at sign-in: the same limits apply.
   const wait = await signinHold(k, user.email, address);
-  if (wait > 0) return { status: 429, body: { error: `Too many wrong passwords. Try again in ${Math.ceil(wait / 60)} minutes.` } };
+  if (wait > 0)
+    return { status: 429, body: { error: `Too many wrong passwords. Try again in ${Math.ceil(wait / 60)} minutes.` } };
   const problem = passwordProblem(input.newPassword);
   if (problem) return { status: 400, body: { error: problem, field: 'newPassword' } };
   if (!(await checkPassword(k, user.email, input.currentPassword))) {

@@ -16,7 +16,13 @@ interface EventRow {
 }
 
 export function rowToEvent(r: EventRow): LogEvent {
-  const e: Record<string, unknown> = { id: r.id, caseId: r.case_id, type: r.type, at: r.at, data: JSON.parse(r.data_json) };
+  const e: Record<string, unknown> = {
+    id: r.id,
+    caseId: r.case_id,
+    type: r.type,
+    at: r.at,
+    data: JSON.parse(r.data_json),
+  };
   if (r.canal_id) e.canalId = r.canal_id;
   return e as unknown as LogEvent;
 }
@@ -32,11 +38,17 @@ export async function caseEvents(k: Knex, caseId: string): Promise<LogEvent[]> {
  * The case-level events of a case and the events of the given canals, by canal: all a canal's
  * rules see (its canal.added names its case; a void counts only in its own scope).
  */
-async function eventsFor(k: Knex, caseId: string, canalIds: readonly string[]): Promise<{ caseLevel: LogEvent[]; byCanal: Map<string, LogEvent[]> }> {
-  const select = () => k<EventRow>('events').select('id', 'case_id', 'canal_id', 'type', 'at', 'data_json').where({ case_id: caseId });
+async function eventsFor(
+  k: Knex,
+  caseId: string,
+  canalIds: readonly string[],
+): Promise<{ caseLevel: LogEvent[]; byCanal: Map<string, LogEvent[]> }> {
+  const select = () =>
+    k<EventRow>('events').select('id', 'case_id', 'canal_id', 'type', 'at', 'data_json').where({ case_id: caseId });
   const rows: EventRow[] = await select().whereNull('canal_id');
   // Chunks keep each query under SQLite's limit on bound values.
-  for (let i = 0; i < canalIds.length; i += 400) rows.push(...(await select().whereIn('canal_id', canalIds.slice(i, i + 400))));
+  for (let i = 0; i < canalIds.length; i += 400)
+    rows.push(...(await select().whereIn('canal_id', canalIds.slice(i, i + 400))));
   const caseLevel: LogEvent[] = [];
   const byCanal = new Map<string, LogEvent[]>(canalIds.map((id) => [id, []]));
   for (const r of rows) {
@@ -66,22 +78,31 @@ export async function recomputeCanals(
     if (!result) {
       // Its canal.added was voided: the canal no longer exists for the rules or the reader.
       await k('findings').where({ canal_id: canalId }).delete();
-      await k('canals').where({ id: canalId }).update({ status: REMOVED, stops: 0, cautions: 0, notes: 0, updated_at: k.fn.now() });
+      await k('canals')
+        .where({ id: canalId })
+        .update({ status: REMOVED, stops: 0, cautions: 0, notes: 0, updated_at: k.fn.now() });
       continue;
     }
     const count = (s: string) => result.findings.filter((f) => f.severity === s).length;
-    await k('canals').where({ id: canalId }).update({
-      status: result.state.status,
-      name: result.state.name,
-      state_json: JSON.stringify(result.state),
-      stops: count('stop'),
-      cautions: count('caution'),
-      notes: count('note'),
-      updated_at: k.fn.now(),
-    });
+    await k('canals')
+      .where({ id: canalId })
+      .update({
+        status: result.state.status,
+        name: result.state.name,
+        state_json: JSON.stringify(result.state),
+        stops: count('stop'),
+        cautions: count('caution'),
+        notes: count('note'),
+        updated_at: k.fn.now(),
+      });
     await k('findings').where({ canal_id: canalId }).delete();
     const rows = result.findings.map((f) => ({
-      canal_id: canalId, case_id: caseId, code: f.code, severity: f.severity, event_id: f.eventId ?? null, message: f.message,
+      canal_id: canalId,
+      case_id: caseId,
+      code: f.code,
+      severity: f.severity,
+      event_id: f.eventId ?? null,
+      message: f.message,
     }));
     // SQLite takes at most 500 rows in one multi-row insert; a canal can have more findings.
     for (let i = 0; i < rows.length; i += 100) await k('findings').insert(rows.slice(i, i + 100));
@@ -112,23 +133,35 @@ async function readCanals(k: Knex, where: { canalId: string } | { caseId: string
     .select('canals.id', 'canals.case_id', 'canals.state_json', 'cases.review_status')
     .whereNot('canals.status', REMOVED)
     .orderBy('canals.id');
-  const rows = (await ('canalId' in where ? q.where('canals.id', where.canalId) : q.where('canals.case_id', where.caseId))) as CanalRow[];
+  const rows = (await ('canalId' in where
+    ? q.where('canals.id', where.canalId)
+    : q.where('canals.case_id', where.caseId))) as CanalRow[];
   if (rows.length === 0) return [];
   const findings = (await k('findings')
     .select('canal_id', 'code', 'severity', 'event_id', 'message')
-    .whereIn('canal_id', rows.map((r) => r.id))
+    .whereIn(
+      'canal_id',
+      rows.map((r) => r.id),
+    )
     .orderBy('id')) as FindingRow[];
-  return rows.map((row) => withReviewStatus({
-    canalId: row.id,
-    caseId: row.case_id,
-    state: JSON.parse(row.state_json) as CanalResult['state'],
-    findings: findings.filter((f) => f.canal_id === row.id).map((f) => ({
-      code: f.code,
-      severity: f.severity,
-      ...(f.event_id ? { eventId: f.event_id } : {}),
-      message: f.message,
-    })) as CanalResult['findings'],
-  }, row.review_status ?? 'open'));
+  return rows.map((row) =>
+    withReviewStatus(
+      {
+        canalId: row.id,
+        caseId: row.case_id,
+        state: JSON.parse(row.state_json) as CanalResult['state'],
+        findings: findings
+          .filter((f) => f.canal_id === row.id)
+          .map((f) => ({
+            code: f.code,
+            severity: f.severity,
+            ...(f.event_id ? { eventId: f.event_id } : {}),
+            message: f.message,
+          })) as CanalResult['findings'],
+      },
+      row.review_status ?? 'open',
+    ),
+  );
 }
 
 /** The stored canal as the API answers it; the review states come from the sign-offs. */

@@ -37,17 +37,38 @@ export async function listCases(
   const canalRows = rows.length
     ? ((await k('canals')
         .select('id', 'case_id', 'name', 'status', 'stops', 'cautions', 'notes')
-        .whereIn('case_id', rows.map((r) => r.id))
+        .whereIn(
+          'case_id',
+          rows.map((r) => r.id),
+        )
         .whereNot('status', REMOVED)
-        .orderBy('id')) as { id: string; case_id: string; name: string; status: string; stops: number; cautions: number; notes: number }[])
+        .orderBy('id')) as {
+        id: string;
+        case_id: string;
+        name: string;
+        status: string;
+        stops: number;
+        cautions: number;
+        notes: number;
+      }[])
     : [];
   return rows.map((r) => {
     const canals = canalRows.filter((c) => c.case_id === r.id);
     const sum = (key: 'stops' | 'cautions' | 'notes') => canals.reduce((n, c) => n + c[key], 0);
     return {
-      caseId: r.id, studentId: r.student_id, studentName: r.student_name, setting: r.setting, tooth: r.tooth,
-      chartRef: r.chart_ref, openedAt: r.opened_at, submittedAt: r.submitted_at, submitted: r.submitted_at !== null,
-      reviewStatus: r.review_status, stops: sum('stops'), cautions: sum('cautions'), notes: sum('notes'),
+      caseId: r.id,
+      studentId: r.student_id,
+      studentName: r.student_name,
+      setting: r.setting,
+      tooth: r.tooth,
+      chartRef: r.chart_ref,
+      openedAt: r.opened_at,
+      submittedAt: r.submitted_at,
+      submitted: r.submitted_at !== null,
+      reviewStatus: r.review_status,
+      stops: sum('stops'),
+      cautions: sum('cautions'),
+      notes: sum('notes'),
       canals: canals.map((c) => ({ canalId: c.id, name: c.name, status: c.status })),
     };
   });
@@ -64,7 +85,9 @@ export interface CaseDetail {
 export async function caseDetail(k: Knex, user: SessionUser, caseId: string): Promise<CaseDetail | null> {
   const row = await readableCase(k, user, caseId);
   if (!row) return null;
-  const events = (await caseEvents(k, caseId)).sort((a, b) => Date.parse(a.at) - Date.parse(b.at) || (a.id < b.id ? -1 : 1));
+  const events = (await caseEvents(k, caseId)).sort(
+    (a, b) => Date.parse(a.at) - Date.parse(b.at) || (a.id < b.id ? -1 : 1),
+  );
   const canals = await storedCanalsOfCase(k, caseId);
   // In the order the canals were set up, as the student met them.
   const setUp = events.filter((e) => e.type === 'canal.added').map((e) => e.canalId);

@@ -8,7 +8,8 @@ import { audit } from './audit';
 
 /** Active demo accounts: while there is one, the installation is in demo mode. */
 export async function activeDemoAccounts(k: Knex): Promise<number> {
-  const row = (await k('users').where({ demo: true, active: true }).count({ n: '*' }).first()) as { n: number | string } | undefined;
+  const row = (await k('users').where({ demo: true, active: true }).count({ n: '*' }).first()) as
+    { n: number | string } | undefined;
   return Number(row?.n ?? 0);
 }
 
@@ -73,7 +74,10 @@ export async function removeDemo(k: Knex): Promise<DemoRemoval> {
     const events = await byCase('events');
     const canals = await byCase('canals');
     const cases = await trx('cases').whereIn('student_id', demoUsers()).del();
-    const assignments = await trx('assignments').whereIn('attending_id', demoUsers()).orWhereIn('student_id', demoUsers()).del();
+    const assignments = await trx('assignments')
+      .whereIn('attending_id', demoUsers())
+      .orWhereIn('student_id', demoUsers())
+      .del();
     const sessions = await trx('sessions').whereIn('user_id', demoUsers()).del();
     await trx('password_resets').whereIn('user_id', demoUsers()).del();
     await trx('request_ids').whereIn('user_id', demoUsers()).del();
@@ -82,12 +86,25 @@ export async function removeDemo(k: Knex): Promise<DemoRemoval> {
     await trx('settings').whereIn('updated_by', demoUsers()).update({ updated_by: null });
     const auditLinesKept = await trx('audit_log').whereIn('actor_id', demoUsers()).update({ actor_id: null });
     const accounts = await trx('users').where({ demo: true }).del();
-    const cohorts = await trx('cohorts').where({ demo: true })
-      .whereNotIn('id', trx('users').select('cohort_id').whereNotNull('cohort_id')).del();
+    const cohorts = await trx('cohorts')
+      .where({ demo: true })
+      .whereNotIn('id', trx('users').select('cohort_id').whereNotNull('cohort_id'))
+      .del();
 
     const removed: DemoRemoval = {
-      accounts, cohorts, cases, canals, events, findings, radiographs, signoffs, comments,
-      assignments, sessions, invitations, auditLinesKept,
+      accounts,
+      cohorts,
+      cases,
+      canals,
+      events,
+      findings,
+      radiographs,
+      signoffs,
+      comments,
+      assignments,
+      sessions,
+      invitations,
+      auditLinesKept,
     };
     if (accounts + cohorts > 0) await audit(trx, null, 'demo.removed', null, null, { ...removed });
     return removed;

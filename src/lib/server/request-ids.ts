@@ -23,7 +23,9 @@ function canonical(value: unknown): string {
 }
 
 export function bodyHash(route: string, body: unknown): string {
-  return createHmac('sha256', config().authSecret).update(`${route}\n${canonical(body)}`).digest('hex');
+  return createHmac('sha256', config().authSecret)
+    .update(`${route}\n${canonical(body)}`)
+    .digest('hex');
 }
 
 export const conflict: Answer = {
@@ -48,7 +50,15 @@ export async function once(
   if (answer.status >= 500) return answer;
   // Two copies racing: the first answer stored is the one of record.
   await k('request_ids')
-    .insert({ id: req.id, user_id: req.userId, route: req.route, body_hash: hash, status: answer.status, answer_json: JSON.stringify(answer.body), at: new Date().toISOString() })
+    .insert({
+      id: req.id,
+      user_id: req.userId,
+      route: req.route,
+      body_hash: hash,
+      status: answer.status,
+      answer_json: JSON.stringify(answer.body),
+      at: new Date().toISOString(),
+    })
     .onConflict(['user_id', 'id'])
     .ignore();
   return answer;

@@ -6,7 +6,13 @@
  */
 
 /** Routes anyone may reach. The chairside shell is static and holds no data. */
-export const PUBLIC_ROUTES: ReadonlySet<string> = new Set(['/signin', '/chairside', '/404', '/api/auth/[...auth]', '/api/health']);
+export const PUBLIC_ROUTES: ReadonlySet<string> = new Set([
+  '/signin',
+  '/chairside',
+  '/404',
+  '/api/auth/[...auth]',
+  '/api/health',
+]);
 
 /** Routes open to some roles only; any other signed-in route is open to every role. */
 export const ROLE_ROUTES: Readonly<Record<string, readonly Role[]>> = {

@@ -11,7 +11,8 @@ import type { UserRow } from './users';
 /** How long a session lasts from sign-in (the token's own lifetime is the same). */
 export const SESSION_MAX_AGE_S = 12 * 60 * 60;
 
-export type EndedBy = 'reactivated' | 'sign-out' | 'sign-out-everywhere' | 'deactivated' | 'password-changed' | 'password-reset';
+export type EndedBy =
+  'reactivated' | 'sign-out' | 'sign-out-everywhere' | 'deactivated' | 'password-changed' | 'password-reset';
 
 /** Opens a session for the user and answers its id. */
 export async function createSession(k: Knex, userId: number, now = new Date()): Promise<string> {
@@ -39,11 +40,20 @@ export async function sessionUser(k: Knex, sessionId: string, now = new Date()):
 
 /** Ends one session (this device's sign-out). */
 export async function endSession(k: Knex, sessionId: string, by: EndedBy, now = new Date()): Promise<void> {
-  await k('sessions').where({ id: sessionId }).whereNull('ended_at').update({ ended_at: now.toISOString(), ended_by: by });
+  await k('sessions')
+    .where({ id: sessionId })
+    .whereNull('ended_at')
+    .update({ ended_at: now.toISOString(), ended_by: by });
 }
 
 /** Ends every session of the user, or every one but `keep` (a password change keeps its own). */
-export async function endAllSessions(k: Knex, userId: number, by: EndedBy, keep?: string, now = new Date()): Promise<number> {
+export async function endAllSessions(
+  k: Knex,
+  userId: number,
+  by: EndedBy,
+  keep?: string,
+  now = new Date(),
+): Promise<number> {
   const q = k('sessions').where({ user_id: userId }).whereNull('ended_at');
   if (keep) q.whereNot('id', keep);
   return q.update({ ended_at: now.toISOString(), ended_by: by });

@@ -25,7 +25,14 @@ function limiters(k: Knex): Limiters {
   let l = byDb.get(k);
   if (!l) {
     // The table is made by a migration (tableCreated): the limiter never issues DDL.
-    const common = { storeClient: k, storeType: 'knex' as const, tableName: TABLE, tableCreated: true, duration: WINDOW_S, clearExpiredByTimeout: true };
+    const common = {
+      storeClient: k,
+      storeType: 'knex' as const,
+      tableName: TABLE,
+      tableCreated: true,
+      duration: WINDOW_S,
+      clearExpiredByTimeout: true,
+    };
     l = {
       pair: new RateLimiterSQLite({ ...common, keyPrefix: 'pair', points: PAIR_FAILURES }),
       address: new RateLimiterSQLite({ ...common, keyPrefix: 'addr', points: ADDRESS_FAILURES }),

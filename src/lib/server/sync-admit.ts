@@ -52,7 +52,9 @@ const later = (error: string): Refusal => ({ error, retry: true });
  * event id is answered with exactly this too (the same words, the same `retry`), so that no
  * answer tells a student that an id they did not make exists.
  */
-export const UNKNOWN_CASE: Readonly<Refusal> = later('the case of this event is not on the server yet; it will be sent again');
+export const UNKNOWN_CASE: Readonly<Refusal> = later(
+  'the case of this event is not on the server yet; it will be sent again',
+);
 const UNKNOWN_CANAL = later('the canal of this event is not on the server yet; it will be sent again');
 const UNKNOWN_TARGET = later('the event it withdraws is not on the server yet; it will be sent again');
 
@@ -75,7 +77,8 @@ export function refusal(e: LogEvent, known: Known): Refusal | null {
     return mine ? { error: 'this case was already opened' } : UNKNOWN_CASE;
   }
   if (!c || !mine) return UNKNOWN_CASE;
-  if (c.review_status === 'approved') return { error: 'this case is signed off; ask your attending to reopen it before recording more' };
+  if (c.review_status === 'approved')
+    return { error: 'this case is signed off; ask your attending to reopen it before recording more' };
   const canal = e.canalId === undefined ? undefined : known.canals.get(e.canalId);
   const ours = canal?.studentId === known.userId;
   if (e.type === 'canal.added') {
@@ -94,7 +97,8 @@ export function refusal(e: LogEvent, known: Known): Refusal | null {
 function targetRefusal(e: LogEvent, ref: string, known: Known): Refusal | null {
   const found = known.targets.get(ref);
   const target = found?.user_id === known.userId ? found : undefined;
-  if (!target && known.refused.has(ref)) return { error: 'the event it names was refused, so there is nothing to withdraw' };
+  if (!target && known.refused.has(ref))
+    return { error: 'the event it names was refused, so there is nothing to withdraw' };
   if (!target) return UNKNOWN_TARGET;
   if (target.case_id !== e.caseId) return { error: 'eventId must name an event of the same case' };
   if (e.type === 'event.voided' && target.canal_id !== (e.canalId ?? null)) {
@@ -119,6 +123,12 @@ export function limitBreach(e: LogEvent, known: Known): LimitBreach | null {
 
 /** Notes a kept event: later events of the batch may name it, and it counts toward the limits. */
 export function keep(e: LogEvent, known: Known): void {
-  known.targets.set(e.id, { id: e.id, case_id: e.caseId, canal_id: e.canalId ?? null, type: e.type, user_id: known.userId });
+  known.targets.set(e.id, {
+    id: e.id,
+    case_id: e.caseId,
+    canal_id: e.canalId ?? null,
+    type: e.type,
+    user_id: known.userId,
+  });
   tallyOfCase(known, e.caseId).add(tallyEvent(e));
 }

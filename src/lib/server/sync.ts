@@ -58,14 +58,33 @@ async function loadKnown(trx: Knex, userId: number, parsed: Parsed[], refused: S
   const events = parsed.map((p) => p.event);
   const refs = unique(events.map((e) => (e.data as { eventId?: unknown }).eventId as string | undefined));
   const stored = await selectIn<{ id: string; canonical: string; user_id: number }>(
-    () => trx('events').select('id', 'canonical', 'user_id'), 'id', unique(events.map((e) => e.id)));
-  const cases = await selectIn<KnownCase>(() => trx('cases').select('id', 'student_id', 'review_status'), 'id', unique(events.map((e) => e.caseId)));
+    () => trx('events').select('id', 'canonical', 'user_id'),
+    'id',
+    unique(events.map((e) => e.id)),
+  );
+  const cases = await selectIn<KnownCase>(
+    () => trx('cases').select('id', 'student_id', 'review_status'),
+    'id',
+    unique(events.map((e) => e.caseId)),
+  );
   const canals = await selectIn<{ id: string; case_id: string; student_id: number }>(
-    () => trx('canals').join('cases', 'cases.id', 'canals.case_id').select('canals.id', 'canals.case_id', 'cases.student_id'),
-    'canals.id', unique(events.map((e) => e.canalId)));
-  const targets = await selectIn<KnownEvent>(() => trx('events').select('id', 'case_id', 'canal_id', 'type', 'user_id'), 'id', refs);
+    () =>
+      trx('canals')
+        .join('cases', 'cases.id', 'canals.case_id')
+        .select('canals.id', 'canals.case_id', 'cases.student_id'),
+    'canals.id',
+    unique(events.map((e) => e.canalId)),
+  );
+  const targets = await selectIn<KnownEvent>(
+    () => trx('events').select('id', 'case_id', 'canal_id', 'type', 'user_id'),
+    'id',
+    refs,
+  );
   // Only this student's cases can take their events; a new case starts with an empty tally.
-  const tallies = await loadTallies(trx, cases.filter((c) => c.student_id === userId).map((c) => c.id));
+  const tallies = await loadTallies(
+    trx,
+    cases.filter((c) => c.student_id === userId).map((c) => c.id),
+  );
   return {
     userId,
     stored: new Map(stored.map((r) => [r.id, r])),
@@ -82,10 +101,18 @@ async function loadKnown(trx: Knex, userId: number, parsed: Parsed[], refused: S
  * Recomputes the touched canals of one case and answers them as readers see them; keeps the
  * case's review status in step (a new submission queues it, a withdrawn one takes it out).
  */
-async function recomputeCase(trx: Knex, c: KnownCase, which: Set<string> | 'all', submitted: boolean, tol: Tolerances, at: string): Promise<CanalResult[]> {
-  const ids = which === 'all'
-    ? ((await trx('canals').select('id').where({ case_id: c.id }).orderBy('id')) as { id: string }[]).map((r) => r.id)
-    : [...which];
+async function recomputeCase(
+  trx: Knex,
+  c: KnownCase,
+  which: Set<string> | 'all',
+  submitted: boolean,
+  tol: Tolerances,
+  at: string,
+): Promise<CanalResult[]> {
+  const ids =
+    which === 'all'
+      ? ((await trx('canals').select('id').where({ case_id: c.id }).orderBy('id')) as { id: string }[]).map((r) => r.id)
+      : [...which];
   const out = await recomputeCanals(trx, c.id, ids, tol);
   // Whether a submission stands once voids are applied (the rules' status says so; a case
   // with no canal yet has only the new event to go by).
@@ -153,19 +180,38 @@ export async function ingestBatch(
       if (e.type === 'case.opened') {
         const d = e.data;
         await trx('cases').insert({
-          id: e.caseId, student_id: userId, setting: d.setting, tooth: d.tooth ?? null,
-          chart_ref: d.chartRef ?? null, opened_at: e.at, review_status: 'open',
+          id: e.caseId,
+          student_id: userId,
+          setting: d.setting,
+          tooth: d.tooth ?? null,
+          chart_ref: d.chartRef ?? null,
+          opened_at: e.at,
+          review_status: 'open',
         });
         known.cases.set(e.caseId, { id: e.caseId, student_id: userId, review_status: 'open' });
       } else if (e.type === 'canal.added') {
-        await trx('canals').insert({ id: e.canalId, case_id: e.caseId, name: e.data.name, status: 'set-up', state_json: '{}' });
+        await trx('canals').insert({
+          id: e.canalId,
+          case_id: e.caseId,
+          name: e.data.name,
+          status: 'set-up',
+          state_json: '{}',
+        });
         known.canals.set(e.canalId!, { caseId: e.caseId, studentId: userId });
       }
       keep(e, known);
       known.kept.set(e.id, canonical);
       toInsert.push({
-        id: e.id, case_id: e.caseId, canal_id: e.canalId ?? null, type: e.type, at: e.at,
-        data_json: JSON.stringify(e.data), canonical, user_id: userId, device_id: deviceId, received_at: receivedAt,
+        id: e.id,
+        case_id: e.caseId,
+        canal_id: e.canalId ?? null,
+        type: e.type,
+        at: e.at,
+        data_json: JSON.stringify(e.data),
+        canonical,
+        user_id: userId,
+        device_id: deviceId,
+        received_at: receivedAt,
       });
       results[index] = { id: e.id, status: 'stored' };
       if (e.type === 'case.submitted') submittedCases.add(e.caseId);
@@ -187,8 +233,13 @@ export async function ingestBatch(
     for (let i = 0; i < toInsert.length; i += 250) await trx('events').insert(toInsert.slice(i, i + 250));
     const canals: CanalResult[] = [];
     for (const [caseId, which] of touched) {
-      canals.push(...(await recomputeCase(trx, known.cases.get(caseId)!, which, submittedCases.has(caseId), tol, receivedAt)));
+      canals.push(
+        ...(await recomputeCase(trx, known.cases.get(caseId)!, which, submittedCases.has(caseId), tol, receivedAt)),
+      );
     }
-    return { results: results.map((r, i) => r ?? { id: idOf(rawEvents[i]), status: 'rejected', error: 'not processed' }), canals };
+    return {
+      results: results.map((r, i) => r ?? { id: idOf(rawEvents[i]), status: 'rejected', error: 'not processed' }),
+      canals,
+    };
   });
 }

@@ -40,14 +40,19 @@ export const POST: APIRoute = async (ctx) => {
   } catch {
     return jsonError(400, 'The body is not valid JSON.');
   }
-  if (Array.isArray((raw as { events?: unknown })?.events) && (raw as { events: unknown[] }).events.length > MAX_EVENTS) {
+  if (
+    Array.isArray((raw as { events?: unknown })?.events) &&
+    (raw as { events: unknown[] }).events.length > MAX_EVENTS
+  ) {
     return jsonError(413, `A batch holds at most ${MAX_EVENTS} events.`);
   }
   const batch = batchSchema.safeParse(raw);
   if (!batch.success) return jsonError(400, `Not a sync batch: ${batch.error.issues[0]?.message ?? 'wrong shape'}.`);
 
   if (batch.data.userId !== undefined && batch.data.userId !== user.id) {
-    return jsonError(403, 'These events belong to another account: sign in as that user to send them.', { code: 'other-user' });
+    return jsonError(403, 'These events belong to another account: sign in as that user to send them.', {
+      code: 'other-user',
+    });
   }
 
   try {
@@ -55,7 +60,12 @@ export const POST: APIRoute = async (ctx) => {
   } catch (err) {
     // A database fault, not the batch: nothing was stored (one transaction). Log no values:
     // SQL errors can carry event data such as chart numbers.
-    console.error(`[sync] batch of ${batch.data.events.length} events not stored: ${(err as { code?: string }).code ?? (err as Error).name}`);
-    return jsonError(500, 'The server could not store this batch; nothing was stored, and the tablet will send it again.');
+    console.error(
+      `[sync] batch of ${batch.data.events.length} events not stored: ${(err as { code?: string }).code ?? (err as Error).name}`,
+    );
+    return jsonError(
+      500,
+      'The server could not store this batch; nothing was stored, and the tablet will send it again.',
+    );
   }
 };

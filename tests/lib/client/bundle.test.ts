@@ -8,11 +8,24 @@ describe('the chairside island', () => {
     const { build } = await import('esbuild');
     const out = await build({
       entryPoints: [new URL('../../../src/components/chairside/ChairsideApp.tsx', import.meta.url).pathname],
-      bundle: true, platform: 'browser', format: 'esm', jsx: 'automatic', write: false, metafile: true, logLevel: 'silent',
+      bundle: true,
+      platform: 'browser',
+      format: 'esm',
+      jsx: 'automatic',
+      write: false,
+      metafile: true,
+      logLevel: 'silent',
       external: ['react', 'react-dom', 'react/*', 'react-dom/*'],
     });
     const inputs = Object.keys(out.metafile.inputs);
     expect(inputs.some((p) => p.endsWith('src/lib/rules/parse.ts'))).toBe(true);
-    expect(inputs.filter((p) => p.includes('node_modules/zod/') || p.endsWith('src/lib/rules/schema.ts') || p.endsWith('src/lib/rules/errors.ts'))).toEqual([]);
+    expect(
+      inputs.filter(
+        (p) =>
+          p.includes('node_modules/zod/') ||
+          p.endsWith('src/lib/rules/schema.ts') ||
+          p.endsWith('src/lib/rules/errors.ts'),
+      ),
+    ).toEqual([]);
   });
 });

@@ -12,7 +12,12 @@ function ev(type: string, data: object = {}, canalId: string | undefined = CANAL
   return { id: `e${String(n).padStart(3, '0')}`, caseId: CASE, canalId, type, at: new Date(clock).toISOString(), data };
 }
 const ctx = (over: Partial<FlowContext> = {}): FlowContext => ({
-  setting: 'extracted', cwlMm: 20.5, complete: false, findingCodes: [], compactionFinished: false, ...over,
+  setting: 'extracted',
+  cwlMm: 20.5,
+  complete: false,
+  findingCodes: [],
+  compactionFinished: false,
+  ...over,
 });
 
 /** The events of an extracted lower first molar's distal canal up to a seated master cone. */
@@ -37,7 +42,15 @@ describe('nextCard', () => {
     const kinds = [];
     for (let i = 2; i <= all.length; i++) kinds.push(nextCard(all.slice(0, i), CANAL, ctx()));
     expect(kinds.map((c) => c.kind)).toEqual([
-      'seat', 'taper', 'radiograph', 'rinse', 'dry', 'master', 'radiograph', 'seal', 'spreader',
+      'seat',
+      'taper',
+      'radiograph',
+      'rinse',
+      'dry',
+      'master',
+      'radiograph',
+      'seal',
+      'spreader',
     ]);
     expect(kinds[1]).toEqual({ kind: 'taper', centre: 19.5 });
     expect(kinds[4]).toEqual({ kind: 'dry', centre: 20.5 });
@@ -59,7 +72,10 @@ describe('nextCard', () => {
   it('asks for the cone-fit radiograph again when the rules say a retake is needed', () => {
     const all = upToSeated().slice(0, 9);
     expect(nextCard(all, CANAL, ctx()).kind).toBe('seal');
-    expect(nextCard(all, CANAL, ctx({ findingCodes: ['cone-fit-retake-needed'] }))).toEqual({ kind: 'radiograph', purpose: 'cone-fit' });
+    expect(nextCard(all, CANAL, ctx({ findingCodes: ['cone-fit-retake-needed'] }))).toEqual({
+      kind: 'radiograph',
+      purpose: 'cone-fit',
+    });
   });
 
   it('leads a short accessory cone straight to removing it and placing another at the same depth', () => {
@@ -71,7 +87,11 @@ describe('nextCard', () => {
     expect(nextCard(all, CANAL, ctx())).toEqual({ kind: 'remove', eventId: short.id, lengthMm: 18.5, depthMm: 18.5 });
     all.push(ev('accessory.removed', { eventId: short.id, reason: 'stopped short' }));
     expect(nextCard(all, CANAL, ctx())).toMatchObject({ kind: 'accessory', cycle: 1, depthMm: 18.5, redo: true });
-    expect(nextCard(all, CANAL, ctx({ replaceSpreader: true }))).toMatchObject({ kind: 'spreader', cycle: 1, centre: 18.5 });
+    expect(nextCard(all, CANAL, ctx({ replaceSpreader: true }))).toMatchObject({
+      kind: 'spreader',
+      cycle: 1,
+      centre: 18.5,
+    });
     all.push(ev('accessory.placed', { size: 'MF', lengthMm: 18.5, reachedLength: true }));
     expect(nextCard(all, CANAL, ctx())).toMatchObject({ kind: 'spreader', cycle: 2, centre: 18.5 });
   });
@@ -94,8 +114,15 @@ describe('nextCard', () => {
 
   it('moves to the fill check once compaction is finished, then sear, compaction, cleaning', () => {
     const all = upToSeated();
-    all.push(ev('spreader.placed', { spreader: 'MF', depthMm: 18.5 }), ev('accessory.placed', { size: 'MF', lengthMm: 18.5, reachedLength: true }));
-    expect(nextCard(all, CANAL, ctx({ compactionFinished: true }))).toEqual({ kind: 'fill', radiographTaken: false, needsRadiograph: true });
+    all.push(
+      ev('spreader.placed', { spreader: 'MF', depthMm: 18.5 }),
+      ev('accessory.placed', { size: 'MF', lengthMm: 18.5, reachedLength: true }),
+    );
+    expect(nextCard(all, CANAL, ctx({ compactionFinished: true }))).toEqual({
+      kind: 'fill',
+      radiographTaken: false,
+      needsRadiograph: true,
+    });
     all.push(ev('radiograph.taken', { purpose: 'fill-check' }));
     expect(nextCard(all, CANAL, ctx())).toEqual({ kind: 'fill', radiographTaken: true, needsRadiograph: true });
     all.push(ev('fill.assessed', { length: 'flush', voids: false }));
@@ -110,8 +137,16 @@ describe('nextCard', () => {
 
   it('tells the spreader card when compaction is complete', () => {
     const all = upToSeated();
-    all.push(ev('spreader.placed', { spreader: 'MF', depthMm: 11 }), ev('accessory.placed', { size: 'MF', lengthMm: 11, reachedLength: true }));
-    expect(nextCard(all, CANAL, ctx({ complete: true }))).toMatchObject({ kind: 'spreader', cycle: 2, centre: 11, complete: true });
+    all.push(
+      ev('spreader.placed', { spreader: 'MF', depthMm: 11 }),
+      ev('accessory.placed', { size: 'MF', lengthMm: 11, reachedLength: true }),
+    );
+    expect(nextCard(all, CANAL, ctx({ complete: true }))).toMatchObject({
+      kind: 'spreader',
+      cycle: 2,
+      centre: 11,
+      complete: true,
+    });
   });
 });
 

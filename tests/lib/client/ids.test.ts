@@ -3,7 +3,9 @@ import { newId } from '../../../src/lib/client/ids';
 
 const UUID_V4 = /^[0-9a-f]{8}-[0-9a-f]{4}-4[0-9a-f]{3}-[89ab][0-9a-f]{3}-[0-9a-f]{12}$/;
 
-afterEach(() => { vi.unstubAllGlobals(); });
+afterEach(() => {
+  vi.unstubAllGlobals();
+});
 
 describe('newId', () => {
   it('uses crypto.randomUUID where the browser has it', () => {
@@ -12,7 +14,12 @@ describe('newId', () => {
   });
 
   it('falls back to the uuid package outside a secure context', () => {
-    vi.stubGlobal('crypto', { getRandomValues: (a: Uint8Array) => { for (let i = 0; i < a.length; i++) a[i] = (i * 37) & 255; return a; } });
+    vi.stubGlobal('crypto', {
+      getRandomValues: (a: Uint8Array) => {
+        for (let i = 0; i < a.length; i++) a[i] = (i * 37) & 255;
+        return a;
+      },
+    });
     expect(newId()).toMatch(UUID_V4);
   });
 });

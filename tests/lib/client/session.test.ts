@@ -10,17 +10,31 @@ const mira = { id: 11, name: 'Mira Okafor', role: 'student' as const };
 const tomas = { id: 12, name: 'Tomas Lindqvist', role: 'student' as const };
 
 function answer(status: number, body: unknown) {
-  return vi.fn(async () => new Response(JSON.stringify(body), { status, headers: { 'Content-Type': 'application/json' } }));
+  return vi.fn(
+    async () => new Response(JSON.stringify(body), { status, headers: { 'Content-Type': 'application/json' } }),
+  );
 }
-const offline = vi.fn(async () => { throw new TypeError('Failed to fetch'); });
+const offline = vi.fn(async () => {
+  throw new TypeError('Failed to fetch');
+});
 let n = 0;
-const event = () => ({ id: `ev-${++n}`, caseId: 'c', canalId: 'k', type: 'seat.checked', at: new Date().toISOString(), data: {} }) as unknown as LogEvent;
+const event = () =>
+  ({
+    id: `ev-${++n}`,
+    caseId: 'c',
+    canalId: 'k',
+    type: 'seat.checked',
+    at: new Date().toISOString(),
+    data: {},
+  }) as unknown as LogEvent;
 
 beforeEach(async () => {
   await closeDb();
   globalThis.indexedDB = new IDBFactory();
 });
-afterEach(() => { vi.unstubAllGlobals(); });
+afterEach(() => {
+  vi.unstubAllGlobals();
+});
 
 describe('resolveIdentity', () => {
   it('keeps the signed-in user so the tablet works offline as them later', async () => {
@@ -43,7 +57,7 @@ describe('resolveIdentity', () => {
     expect((await resolveIdentity()).demo).toBe(false);
   });
 
-  it('clears the previous user\'s data when someone else signs in and all of it was sent', async () => {
+  it("clears the previous user's data when someone else signs in and all of it was sent", async () => {
     vi.stubGlobal('fetch', answer(200, mira));
     await resolveIdentity();
     const e = event();
@@ -54,7 +68,7 @@ describe('resolveIdentity', () => {
     expect(await listEvents(mira.id)).toEqual([]);
   });
 
-  it('keeps the previous user\'s unsent events untouched when someone else signs in', async () => {
+  it("keeps the previous user's unsent events untouched when someone else signs in", async () => {
     vi.stubGlobal('fetch', answer(200, mira));
     await resolveIdentity();
     await putEvent(mira.id, event());

@@ -8,13 +8,24 @@ import { listEvents } from '../../../src/lib/client/outbox';
 import { useChairside } from '../../../src/lib/client/store';
 
 const USER = 5;
-const setUp = (name: string) => ({ name, referencePoint: 'cusp tip', cwlMm: 21, mafSize: '35', preparation: 'step-back' });
+const setUp = (name: string) => ({
+  name,
+  referencePoint: 'cusp tip',
+  cwlMm: 21,
+  mafSize: '35',
+  preparation: 'step-back',
+});
 
 beforeEach(async () => {
   await closeDb();
   globalThis.indexedDB = new IDBFactory();
   vi.stubGlobal('navigator', { onLine: false });
-  useChairside.setState({ identity: { user: { id: USER, name: 'Ana', role: 'student' }, source: 'tablet', signedOut: false, demo: false }, rows: [], caseId: null, error: null });
+  useChairside.setState({
+    identity: { user: { id: USER, name: 'Ana', role: 'student' }, source: 'tablet', signedOut: false, demo: false },
+    rows: [],
+    caseId: null,
+    error: null,
+  });
 });
 
 /** Opens a case on the tablet and sets up `count` canals, as the island's cards do. */
@@ -43,12 +54,20 @@ describe('record', () => {
     expect(await listEvents(USER)).toHaveLength(before);
   });
 
-  it('takes a canal again once another canal\'s set-up is withdrawn', async () => {
+  it("takes a canal again once another canal's set-up is withdrawn", async () => {
     const { record } = useChairside.getState();
     const { canals } = await caseWithCanals(LIMITS.canalsPerCase);
     const first = canals[0]!;
-    expect(await record('event.voided', { eventId: first.addedId, reason: 'wrong tooth' }, { canalId: first.canalId, label: 'withdrawn' })).not.toBeNull();
-    expect(await record('canal.added', setUp('C9'), { canalId: randomUUID(), label: 'canal C9 set up' })).not.toBeNull();
+    expect(
+      await record(
+        'event.voided',
+        { eventId: first.addedId, reason: 'wrong tooth' },
+        { canalId: first.canalId, label: 'withdrawn' },
+      ),
+    ).not.toBeNull();
+    expect(
+      await record('canal.added', setUp('C9'), { canalId: randomUUID(), label: 'canal C9 set up' }),
+    ).not.toBeNull();
   });
 
   it(`refuses the event past ${LIMITS.eventsPerCanal} on one canal`, async () => {

@@ -10,9 +10,18 @@ import type { Me } from '../../../src/lib/client/api';
 let n = 0;
 function event(): LogEvent {
   n += 1;
-  return { id: `ev-${n}`, caseId: 'case-1', canalId: 'canal-1', type: 'seat.checked', at: new Date().toISOString(), data: {} } as unknown as LogEvent;
+  return {
+    id: `ev-${n}`,
+    caseId: 'case-1',
+    canalId: 'canal-1',
+    type: 'seat.checked',
+    at: new Date().toISOString(),
+    data: {},
+  } as unknown as LogEvent;
 }
-const me = (id: number): SyncDeps['whoIsSignedIn'] => async () => ({ kind: 'ok', value: { id, name: 'x', role: 'student' } as Me });
+const me =
+  (id: number): SyncDeps['whoIsSignedIn'] =>
+  async () => ({ kind: 'ok', value: { id, name: 'x', role: 'student' } as Me });
 
 beforeEach(async () => {
   await closeDb();
@@ -23,13 +32,19 @@ describe('syncOnce', () => {
   it('sends nothing when another user is signed in', async () => {
     await putEvent(1, event());
     const sent: LogEvent[][] = [];
-    const out = await syncOnce(1, 'tablet-1', { whoIsSignedIn: me(2), post: async (_d, e) => { sent.push(e); return { kind: 'offline', error: '' }; } });
+    const out = await syncOnce(1, 'tablet-1', {
+      whoIsSignedIn: me(2),
+      post: async (_d, e) => {
+        sent.push(e);
+        return { kind: 'offline', error: '' };
+      },
+    });
     expect(out).toEqual({ kind: 'other-user', signedInId: 2 });
     expect(sent).toEqual([]);
     expect(await listQueued(1)).toHaveLength(1);
   });
 
-  it('names the outbox\'s owner in every batch, and stops with the outbox intact when the server says the session is someone else\'s', async () => {
+  it("names the outbox's owner in every batch, and stops with the outbox intact when the server says the session is someone else's", async () => {
     for (let i = 0; i < 2; i++) await putEvent(1, event());
     const owners: number[] = [];
     const out = await syncOnce(1, 'tablet-1', {
@@ -47,11 +62,26 @@ describe('syncOnce', () => {
   it('does not send for ever a withdrawal of an answer the server refused', async () => {
     const bad = event();
     await putEvent(1, bad);
-    await syncOnce(1, 'tablet-1', { whoIsSignedIn: me(1), post: async () => ({ kind: 'ok', value: { results: [{ id: bad.id, status: 'rejected', error: 'depthMm must be a multiple of 0.5 mm' }], canals: [] } }) });
+    await syncOnce(1, 'tablet-1', {
+      whoIsSignedIn: me(1),
+      post: async () => ({
+        kind: 'ok',
+        value: {
+          results: [{ id: bad.id, status: 'rejected', error: 'depthMm must be a multiple of 0.5 mm' }],
+          canals: [],
+        },
+      }),
+    });
     const undo = { ...event(), type: 'event.voided', data: { eventId: bad.id, reason: 'undo' } } as unknown as LogEvent;
     await putEvent(1, undo);
     const sent: string[] = [];
-    await syncOnce(1, 'tablet-1', { whoIsSignedIn: me(1), post: async (_d, batch) => { sent.push(...batch.map((e) => e.id)); return { kind: 'ok', value: { results: [], canals: [] } }; } });
+    await syncOnce(1, 'tablet-1', {
+      whoIsSignedIn: me(1),
+      post: async (_d, batch) => {
+        sent.push(...batch.map((e) => e.id));
+        return { kind: 'ok', value: { results: [], canals: [] } };
+      },
+    });
     expect(sent).toEqual([]);
     const row = (await listEvents(1)).find((r) => r.event.id === undo.id);
     expect(row).toMatchObject({ state: 'rejected' });
@@ -59,12 +89,15 @@ describe('syncOnce', () => {
 
   it('keeps the outbox intact when the network drops mid-sync', async () => {
     for (let i = 0; i < 3; i++) await putEvent(1, event());
-    const out = await syncOnce(1, 'tablet-1', { whoIsSignedIn: me(1), post: async () => ({ kind: 'offline', error: 'Failed to fetch' }) });
+    const out = await syncOnce(1, 'tablet-1', {
+      whoIsSignedIn: me(1),
+      post: async () => ({ kind: 'offline', error: 'Failed to fetch' }),
+    });
     expect(out).toEqual({ kind: 'offline' });
     expect(await listQueued(1)).toHaveLength(3);
   });
 
-  it('sends in recording order, applies results and keeps the server\'s verdicts', async () => {
+  it("sends in recording order, applies results and keeps the server's verdicts", async () => {
     const evs = [event(), event(), event()];
     for (const e of evs) await putEvent(1, e);
     let got: string[] = [];
@@ -72,14 +105,17 @@ describe('syncOnce', () => {
       whoIsSignedIn: me(1),
       post: async (_d, batch) => {
         got = batch.map((e) => e.id);
-        return { kind: 'ok', value: {
-          results: [
-            { id: batch[0]!.id, status: 'stored' },
-            { id: batch[1]!.id, status: 'duplicate' },
-            { id: batch[2]!.id, status: 'rejected', error: 'bad length' },
-          ],
-          canals: [{ canalId: 'canal-1', caseId: 'case-1', state: {} as never, findings: [] }],
-        } };
+        return {
+          kind: 'ok',
+          value: {
+            results: [
+              { id: batch[0]!.id, status: 'stored' },
+              { id: batch[1]!.id, status: 'duplicate' },
+              { id: batch[2]!.id, status: 'rejected', error: 'bad length' },
+            ],
+            canals: [{ canalId: 'canal-1', caseId: 'case-1', state: {} as never, findings: [] }],
+          },
+        };
       },
     });
     expect(got).toEqual(evs.map((e) => e.id));
@@ -97,7 +133,10 @@ describe('syncOnce', () => {
       post: async (_d, batch) => {
         sizes.push(batch.length);
         if (batch.length > 2) return { kind: 'status', status: 413 };
-        return { kind: 'ok', value: { results: batch.map((e) => ({ id: e.id, status: 'stored' as const })), canals: [] } };
+        return {
+          kind: 'ok',
+          value: { results: batch.map((e) => ({ id: e.id, status: 'stored' as const })), canals: [] },
+        };
       },
     });
     expect(sizes).toEqual([4, 2, 2]);
@@ -116,7 +155,18 @@ describe('syncOnce, the retry cap', () => {
       now: () => clock,
       post: async (_d, batch) => {
         sent.push(...batch.map((x) => x.id));
-        return { kind: 'ok', value: { results: batch.map((x) => ({ id: x.id, status: 'rejected' as const, error: 'the case of this event is not on the server yet; it will be sent again', retry: true })), canals: [] } };
+        return {
+          kind: 'ok',
+          value: {
+            results: batch.map((x) => ({
+              id: x.id,
+              status: 'rejected' as const,
+              error: 'the case of this event is not on the server yet; it will be sent again',
+              retry: true,
+            })),
+            canals: [],
+          },
+        };
       },
     };
     await syncOnce(1, 'tablet-1', deps);

@@ -1,6 +1,14 @@
 // fast-check generators: textbook canals and messy cases made only of valid events.
 import fc from 'fast-check';
-import { canalThirds, EVENT_TYPES, ISO_SIZES, isValidFdi, NON_STANDARD_SIZES, type EventType, type LogEvent } from '../../../src/lib/rules';
+import {
+  canalThirds,
+  EVENT_TYPES,
+  ISO_SIZES,
+  isValidFdi,
+  NON_STANDARD_SIZES,
+  type EventType,
+  type LogEvent,
+} from '../../../src/lib/rules';
 import { uuidFor } from './builder';
 
 /**
@@ -8,7 +16,9 @@ import { uuidFor } from './builder';
  * checks that every generated event passes parseEvent unchanged.
  */
 function asEvent(raw: Record<string, unknown>): LogEvent {
-  const data = Object.fromEntries(Object.entries(raw.data as Record<string, unknown>).filter(([, v]) => v !== undefined));
+  const data = Object.fromEntries(
+    Object.entries(raw.data as Record<string, unknown>).filter(([, v]) => v !== undefined),
+  );
   const e = Object.fromEntries(Object.entries({ ...raw, data }).filter(([, v]) => v !== undefined));
   return e as unknown as LogEvent;
 }
@@ -32,8 +42,12 @@ function materialise(drafts: Draft[], gapsS: number[], caseId: string, canalId: 
   return drafts.map((d, i) => {
     ms += (gapsS[i % gapsS.length] ?? 1) * 1000;
     return asEvent({
-      id: uuidFor(idBase + i), caseId, canalId: d.caseLevel === true ? undefined : canalId, type: d.type,
-      at: new Date(ms).toISOString(), data: d.data,
+      id: uuidFor(idBase + i),
+      caseId,
+      canalId: d.caseLevel === true ? undefined : canalId,
+      type: d.type,
+      at: new Date(ms).toISOString(),
+      data: d.data,
     });
   });
 }
@@ -70,16 +84,37 @@ export const textbookCanal: fc.Arbitrary<TextbookCase> = fc
   })
   .map((g) => {
     const isTooth = g.setting !== 'block';
-    const orifice = g.orificeShare === undefined ? (isTooth ? undefined : 0) : Math.floor((g.cwl * g.orificeShare) / 100) / 1;
+    const orifice =
+      g.orificeShare === undefined ? (isTooth ? undefined : 0) : Math.floor((g.cwl * g.orificeShare) / 100) / 1;
     const orificeMm = orifice === undefined ? undefined : Math.floor(orifice * 2) / 2;
     const thirds = canalThirds(g.cwl, orificeMm);
     const drafts: Draft[] = [
-      { type: 'case.opened', data: { setting: g.setting, tooth: isTooth ? g.tooth : undefined, chartRef: g.setting === 'patient' ? 'DEMO-42' : undefined }, caseLevel: true },
-      { type: 'canal.added', data: { name: 'C1', referencePoint: 'reference', cwlMm: g.cwl, mafSize: g.maf, preparation: 'step-back', orificeDepthMm: orificeMm } },
+      {
+        type: 'case.opened',
+        data: {
+          setting: g.setting,
+          tooth: isTooth ? g.tooth : undefined,
+          chartRef: g.setting === 'patient' ? 'DEMO-42' : undefined,
+        },
+        caseLevel: true,
+      },
+      {
+        type: 'canal.added',
+        data: {
+          name: 'C1',
+          referencePoint: 'reference',
+          cwlMm: g.cwl,
+          mafSize: g.maf,
+          preparation: 'step-back',
+          orificeDepthMm: orificeMm,
+        },
+      },
       { type: 'seat.checked', data: { fileSize: g.maf, lengthMm: g.cwl, result: 'seated' } },
       { type: 'taper.checked', data: { spreader: g.spreader, depthMm: g.cwl - g.taperShort } },
     ];
-    const rad = (purpose: string, caseLevel = false) => { if (isTooth) drafts.push({ type: 'radiograph.taken', data: { purpose }, caseLevel }); };
+    const rad = (purpose: string, caseLevel = false) => {
+      if (isTooth) drafts.push({ type: 'radiograph.taken', data: { purpose }, caseLevel });
+    };
     rad('maf');
     drafts.push(
       { type: 'canal.rinsed', data: { solutions: ['naocl', 'edta'] } },
@@ -113,7 +148,9 @@ export const textbookCanal: fc.Arbitrary<TextbookCase> = fc
     drafts.push({ type: 'case.submitted', data: {}, caseLevel: true });
     const idBase = g.n * 1000;
     // A withdrawal names the cone placed just before it.
-    drafts.forEach((d, i) => { if (d.data.eventId === '<previous>') d.data.eventId = uuidFor(idBase + i - 1); });
+    drafts.forEach((d, i) => {
+      if (d.data.eventId === '<previous>') d.data.eventId = uuidFor(idBase + i - 1);
+    });
     const canalId = uuidFor(idBase + 999);
     return { canalId, events: materialise(drafts, g.gaps, uuidFor(idBase + 998), canalId, idBase) };
   });
@@ -123,24 +160,54 @@ function dataFor(type: EventType, ids: string[]): fc.Arbitrary<Record<string, un
   const len = half(0.5, 40);
   const someId = ids.length > 0 ? fc.constantFrom(...ids) : fc.constant(uuidFor(1));
   switch (type) {
-    case 'case.opened': return fc.record({ setting: fc.constantFrom('block', 'extracted'), tooth: fc.constantFrom(...TEETH) });
-    case 'canal.added': return fc.record({ name: fc.constantFrom('MB', 'D'), referencePoint: fc.constant('cusp'), cwlMm: len, mafSize: anySize, preparation: fc.constantFrom('step-back', '0.04'), orificeDepthMm: fc.option(half(0, 20), { nil: undefined }) });
-    case 'canal.cwlCorrected': return fc.record({ cwlMm: len, reason: fc.constant('check') });
-    case 'seat.checked': return fc.record({ fileSize: anySize, lengthMm: len, result: fc.constantFrom('seated', 'advances', 'short') });
-    case 'taper.checked': case 'spreader.placed': return fc.record({ spreader: anySize, depthMm: len });
-    case 'radiograph.taken': return fc.record({ purpose: fc.constantFrom('working-length', 'maf', 'cone-fit', 'fill-check', 'post-op') });
-    case 'canal.rinsed': return fc.record({ solutions: fc.subarray(['naocl', 'edta', 'saline', 'chlorhexidine'], { minLength: 1 }) });
-    case 'canal.dried': return fc.record({ pointSize: fc.constantFrom('fine', 'medium'), measuredMm: len });
-    case 'master.fitted': return fc.record({ size: anySize, lengthMm: len, reachedLength: fc.boolean() });
-    case 'master.seated': return fc.record({ sealer: fc.constantFrom('zoe', 'other') });
-    case 'accessory.placed': return fc.record({ size: anySize, lengthMm: len, reachedLength: fc.boolean() });
-    case 'accessory.removed': case 'event.voided': return fc.record({ eventId: someId, reason: fc.constant('') });
-    case 'fill.assessed': return fc.record({ length: fc.constantFrom('flush', 'short-0-2', 'short-over-2', 'beyond'), voids: fc.boolean() });
-    case 'gp.seared': return fc.record({ atOrifice: fc.boolean(), relativeToCejMm: fc.option(half(-5, 5), { nil: undefined }) });
-    case 'chamber.cleaned': return fc.constant({ agent: 'alcohol' });
-    case 'access.restored': return fc.record({ kind: fc.constantFrom('temporary', 'permanent') });
-    case 'note.added': return fc.constant({ text: 'note' });
-    default: return fc.constant({});
+    case 'case.opened':
+      return fc.record({ setting: fc.constantFrom('block', 'extracted'), tooth: fc.constantFrom(...TEETH) });
+    case 'canal.added':
+      return fc.record({
+        name: fc.constantFrom('MB', 'D'),
+        referencePoint: fc.constant('cusp'),
+        cwlMm: len,
+        mafSize: anySize,
+        preparation: fc.constantFrom('step-back', '0.04'),
+        orificeDepthMm: fc.option(half(0, 20), { nil: undefined }),
+      });
+    case 'canal.cwlCorrected':
+      return fc.record({ cwlMm: len, reason: fc.constant('check') });
+    case 'seat.checked':
+      return fc.record({ fileSize: anySize, lengthMm: len, result: fc.constantFrom('seated', 'advances', 'short') });
+    case 'taper.checked':
+    case 'spreader.placed':
+      return fc.record({ spreader: anySize, depthMm: len });
+    case 'radiograph.taken':
+      return fc.record({ purpose: fc.constantFrom('working-length', 'maf', 'cone-fit', 'fill-check', 'post-op') });
+    case 'canal.rinsed':
+      return fc.record({ solutions: fc.subarray(['naocl', 'edta', 'saline', 'chlorhexidine'], { minLength: 1 }) });
+    case 'canal.dried':
+      return fc.record({ pointSize: fc.constantFrom('fine', 'medium'), measuredMm: len });
+    case 'master.fitted':
+      return fc.record({ size: anySize, lengthMm: len, reachedLength: fc.boolean() });
+    case 'master.seated':
+      return fc.record({ sealer: fc.constantFrom('zoe', 'other') });
+    case 'accessory.placed':
+      return fc.record({ size: anySize, lengthMm: len, reachedLength: fc.boolean() });
+    case 'accessory.removed':
+    case 'event.voided':
+      return fc.record({ eventId: someId, reason: fc.constant('') });
+    case 'fill.assessed':
+      return fc.record({
+        length: fc.constantFrom('flush', 'short-0-2', 'short-over-2', 'beyond'),
+        voids: fc.boolean(),
+      });
+    case 'gp.seared':
+      return fc.record({ atOrifice: fc.boolean(), relativeToCejMm: fc.option(half(-5, 5), { nil: undefined }) });
+    case 'chamber.cleaned':
+      return fc.constant({ agent: 'alcohol' });
+    case 'access.restored':
+      return fc.record({ kind: fc.constantFrom('temporary', 'permanent') });
+    case 'note.added':
+      return fc.constant({ text: 'note' });
+    default:
+      return fc.constant({});
   }
 }
 
@@ -161,13 +228,16 @@ export function messyCase(ties: boolean): fc.Arbitrary<MessyCase> {
     // Voids and removals name any step but never the set-up (ids 0–2), so both canals always exist.
     const targets = ids.slice(3);
     const one = (i: number) =>
-      fc.record({
-        type: fc.constantFrom(...EVENT_TYPES.filter((t) => t !== 'case.opened' && t !== 'canal.added')),
-        canal: fc.constantFrom(...canalIds),
-        minute: ties ? fc.integer({ min: 0, max: 5 }) : fc.constant(i),
-      }).chain((h) => dataFor(h.type, targets).map((data) => ({ ...h, data, id: ids[i] as string })));
+      fc
+        .record({
+          type: fc.constantFrom(...EVENT_TYPES.filter((t) => t !== 'case.opened' && t !== 'canal.added')),
+          canal: fc.constantFrom(...canalIds),
+          minute: ties ? fc.integer({ min: 0, max: 5 }) : fc.constant(i),
+        })
+        .chain((h) => dataFor(h.type, targets).map((data) => ({ ...h, data, id: ids[i] as string })));
     const steps = fc.tuple(...Array.from({ length: 30 }, (_, i) => one(i + 3)));
-    return fc.tuple(steps, dataFor('case.opened', ids), dataFor('canal.added', ids), dataFor('canal.added', ids))
+    return fc
+      .tuple(steps, dataFor('case.opened', ids), dataFor('canal.added', ids), dataFor('canal.added', ids))
       .map(([steps, openData, addedA, addedB]) => {
         const at = (m: number) => new Date(BASE_MS + m * 60_000).toISOString();
         const events: LogEvent[] = [
@@ -176,8 +246,20 @@ export function messyCase(ties: boolean): fc.Arbitrary<MessyCase> {
           asEvent({ id: ids[2], caseId, canalId: canalIds[1], type: 'canal.added', at: at(1), data: addedB }),
         ];
         for (const s of steps) {
-          const caseLevel = s.type === 'case.submitted' || (s.type === 'access.restored' && s.minute % 2 === 0) || (s.type === 'radiograph.taken' && s.data.purpose === 'post-op');
-          events.push(asEvent({ id: s.id, caseId, canalId: caseLevel ? undefined : s.canal, type: s.type, at: at(s.minute + 2), data: s.data }));
+          const caseLevel =
+            s.type === 'case.submitted' ||
+            (s.type === 'access.restored' && s.minute % 2 === 0) ||
+            (s.type === 'radiograph.taken' && s.data.purpose === 'post-op');
+          events.push(
+            asEvent({
+              id: s.id,
+              caseId,
+              canalId: caseLevel ? undefined : s.canal,
+              type: s.type,
+              at: at(s.minute + 2),
+              data: s.data,
+            }),
+          );
         }
         return { canalIds, events };
       });

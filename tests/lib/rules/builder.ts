@@ -1,6 +1,15 @@
 // Test helper: builds a canal's events step by step, each one checked by parseEvent, with
 // ids and timestamps that are easy to read. Invented demo values only.
-import { canalThirds, evaluateCanal, parseEvent, type CanalResult, type EventType, type FindingCode, type LogEvent, type Tolerances } from '../../../src/lib/rules';
+import {
+  canalThirds,
+  evaluateCanal,
+  parseEvent,
+  type CanalResult,
+  type EventType,
+  type FindingCode,
+  type LogEvent,
+  type Tolerances,
+} from '../../../src/lib/rules';
 
 const BASE_MS = Date.parse('2026-12-02T09:00:00.000Z');
 export const NOW = new Date('2026-12-03T09:00:00.000Z');
@@ -62,10 +71,15 @@ export function textbookSteps(cwl = 21, size = '30', tooth = true, coronalEndMm 
   // From 1.5 mm short of the CWL, 3 mm shallower each cycle, until the spreader no longer
   // passes the coronal third; at least three cones.
   const depths: number[] = [];
-  for (let d = cwl - 1.5; d >= 0.5 && (depths.length < 3 || (depths.at(-1) ?? 0) > coronalEndMm); d -= 3) depths.push(d);
+  for (let d = cwl - 1.5; d >= 0.5 && (depths.length < 3 || (depths.at(-1) ?? 0) > coronalEndMm); d -= 3)
+    depths.push(d);
   depths.forEach((depth, k) => {
     steps.push({ key: `sp${k + 1}`, type: 'spreader.placed', data: { spreader: 'MF', depthMm: depth } });
-    steps.push({ key: `acc${k + 1}`, type: 'accessory.placed', data: { size: 'MF', lengthMm: depth, reachedLength: true } });
+    steps.push({
+      key: `acc${k + 1}`,
+      type: 'accessory.placed',
+      data: { size: 'MF', lengthMm: depth, reachedLength: true },
+    });
   });
   steps.push(
     { key: 'fill-rad', type: 'radiograph.taken', data: rad('fill-check') },
@@ -73,7 +87,12 @@ export function textbookSteps(cwl = 21, size = '30', tooth = true, coronalEndMm 
     { key: 'sear', type: 'gp.seared', data: tooth ? { atOrifice: true, relativeToCejMm: 0.5 } : { atOrifice: true } },
     { key: 'compact', type: 'gp.compacted', data: {} },
     { key: 'clean', type: 'chamber.cleaned', data: { agent: 'alcohol' } },
-    { key: 'restore', type: 'access.restored', data: { kind: 'temporary', material: 'glass ionomer' }, caseLevel: true },
+    {
+      key: 'restore',
+      type: 'access.restored',
+      data: { kind: 'temporary', material: 'glass ionomer' },
+      caseLevel: true,
+    },
     { key: 'post-op', type: 'radiograph.taken', data: rad('post-op'), caseLevel: true },
     { key: 'submit', type: 'case.submitted', data: {}, caseLevel: true },
   );
@@ -92,16 +111,32 @@ export class CanalLog {
   constructor(readonly opts: CanalOptions = {}) {
     const setting = opts.setting ?? 'extracted';
     const tooth = setting === 'block' ? undefined : (opts.tooth ?? 36);
-    this.add('open', 'case.opened', { setting, tooth, chartRef: setting === 'patient' ? 'DEMO-0001' : undefined }, { caseLevel: true });
+    this.add(
+      'open',
+      'case.opened',
+      { setting, tooth, chartRef: setting === 'patient' ? 'DEMO-0001' : undefined },
+      { caseLevel: true },
+    );
     this.add('canal', 'canal.added', {
-      name: 'D', referencePoint: setting === 'block' ? 'block top' : 'distobuccal cusp tip',
-      cwlMm: opts.cwlMm ?? 21, mafSize: opts.mafSize ?? '30', preparation: 'step-back',
-      orificeDepthMm: opts.orificeDepthMm, spreader: 'MF', accessorySize: 'MF', sealer: 'epoxy-resin',
+      name: 'D',
+      referencePoint: setting === 'block' ? 'block top' : 'distobuccal cusp tip',
+      cwlMm: opts.cwlMm ?? 21,
+      mafSize: opts.mafSize ?? '30',
+      preparation: 'step-back',
+      orificeDepthMm: opts.orificeDepthMm,
+      spreader: 'MF',
+      accessorySize: 'MF',
+      sealer: 'epoxy-resin',
     });
   }
 
   /** Adds one event; `after` puts it 20 s after an earlier step instead of at the end. */
-  add(key: string, type: EventType, data: Record<string, unknown>, o: { caseLevel?: boolean; after?: string; canalId?: string } = {}): LogEvent {
+  add(
+    key: string,
+    type: EventType,
+    data: Record<string, unknown>,
+    o: { caseLevel?: boolean; after?: string; canalId?: string } = {},
+  ): LogEvent {
     let ms: number;
     if (o.after !== undefined) {
       const anchor = this.atByKey.get(o.after);
@@ -113,8 +148,12 @@ export class CanalLog {
     }
     const id = nextId();
     const e = mustParse({
-      id, caseId: this.caseId, canalId: o.caseLevel === true ? undefined : (o.canalId ?? this.canalId),
-      type, at: new Date(ms).toISOString(), data,
+      id,
+      caseId: this.caseId,
+      canalId: o.caseLevel === true ? undefined : (o.canalId ?? this.canalId),
+      type,
+      at: new Date(ms).toISOString(),
+      data,
     });
     this.events.push(e);
     this.atByKey.set(key, ms);

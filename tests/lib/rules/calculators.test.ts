@@ -1,5 +1,11 @@
 import { describe, expect, it } from 'vitest';
-import { proportionalLength, roundToHalf, stepBackSchedule, workingLengthByDiscrepancy, workingLengthFromApexLocator } from '../../../src/lib/rules';
+import {
+  proportionalLength,
+  roundToHalf,
+  stepBackSchedule,
+  workingLengthByDiscrepancy,
+  workingLengthFromApexLocator,
+} from '../../../src/lib/rules';
 
 describe('workingLengthByDiscrepancy', () => {
   it('gives 22.0 + 2.0 − 1 = 23.0 mm for a file 2 mm short (Ingle; Weine; Grossman 13th ed. — seen; worked example computed)', () => {
@@ -39,7 +45,11 @@ describe('proportionalLength', () => {
 
 describe('stepBackSchedule', () => {
   it('steps MAF 25 back to 30, 35, 40 at 1, 2, 3 mm short (Mullaney 1979 — seen)', () => {
-    expect(stepBackSchedule('25', 21, 1.0)).toEqual([{ size: '30', lengthMm: 20 }, { size: '35', lengthMm: 19 }, { size: '40', lengthMm: 18 }]);
+    expect(stepBackSchedule('25', 21, 1.0)).toEqual([
+      { size: '30', lengthMm: 20 },
+      { size: '35', lengthMm: 19 },
+      { size: '40', lengthMm: 18 },
+    ]);
   });
   it('steps 0.5 mm per size when asked (Allison 1979; dental texts — seen, sources differ)', () => {
     expect(stepBackSchedule('25', 21, 0.5, 4).map((s) => s.lengthMm)).toEqual([20.5, 20, 19.5, 19]);

@@ -7,7 +7,9 @@ describe('evaluateCanal', () => {
     it('cautions on a spreader placement recorded before the master cone is seated', () => {
       const log = canal();
       const early = log.add('early', 'spreader.placed', { spreader: 'MF', depthMm: 19 }, { after: 'fit' });
-      expect(only(log.evaluate(), 'compaction-before-seat')).toEqual([expect.objectContaining({ severity: 'caution', eventId: early.id })]);
+      expect(only(log.evaluate(), 'compaction-before-seat')).toEqual([
+        expect.objectContaining({ severity: 'caution', eventId: early.id }),
+      ]);
     });
     it('cautions on an accessory cone recorded before the master cone is seated, or with none seated', () => {
       const log = canal({ until: 'fit' });
@@ -25,10 +27,14 @@ describe('evaluateCanal', () => {
   describe('spreader-beyond-cwl', () => {
     it('stops a spreader depth greater than the CWL', () => {
       const log = canal({ patch: { sp1: { depthMm: 21.5 }, acc1: { lengthMm: 21.5 } } });
-      expect(only(log.evaluate(), 'spreader-beyond-cwl')).toEqual([expect.objectContaining({ severity: 'stop', eventId: log.id('sp1') })]);
+      expect(only(log.evaluate(), 'spreader-beyond-cwl')).toEqual([
+        expect.objectContaining({ severity: 'stop', eventId: log.id('sp1') }),
+      ]);
     });
     it('passes a spreader exactly at the CWL', () => {
-      expect(only(canal({ patch: { sp1: { depthMm: 21 }, acc1: { lengthMm: 21 } } }).evaluate(), 'spreader-beyond-cwl')).toEqual([]);
+      expect(
+        only(canal({ patch: { sp1: { depthMm: 21 }, acc1: { lengthMm: 21 } } }).evaluate(), 'spreader-beyond-cwl'),
+      ).toEqual([]);
     });
     it('judges every placement again when the CWL is shortened', () => {
       const log = canal();
@@ -41,10 +47,14 @@ describe('evaluateCanal', () => {
     // First placement within 2 mm of the CWL: trade teaching (practice).
     it('cautions when the first placement after seating stops more than 2.0 mm short', () => {
       const log = canal({ patch: { sp1: { depthMm: 18.5 }, acc1: { lengthMm: 18.5 } } });
-      expect(only(log.evaluate(), 'first-spreader-short')).toEqual([expect.objectContaining({ severity: 'caution', eventId: log.id('sp1') })]);
+      expect(only(log.evaluate(), 'first-spreader-short')).toEqual([
+        expect.objectContaining({ severity: 'caution', eventId: log.id('sp1') }),
+      ]);
     });
     it('passes a first placement exactly 2.0 mm short (practice)', () => {
-      expect(only(canal({ patch: { sp1: { depthMm: 19 }, acc1: { lengthMm: 19 } } }).evaluate(), 'first-spreader-short')).toEqual([]);
+      expect(
+        only(canal({ patch: { sp1: { depthMm: 19 }, acc1: { lengthMm: 19 } } }).evaluate(), 'first-spreader-short'),
+      ).toEqual([]);
     });
     it('judges only the first placement, not later shallower ones', () => {
       expect(only(canal().evaluate(), 'first-spreader-short')).toEqual([]);
@@ -54,8 +64,15 @@ describe('evaluateCanal', () => {
   describe('accessory-without-spreader', () => {
     it('cautions on a cone that follows no spreader placement since the previous kept cone', () => {
       const log = canal();
-      const extra = log.add('extra', 'accessory.placed', { size: 'MF', lengthMm: 19.5, reachedLength: true }, { after: 'acc1' });
-      expect(only(log.evaluate(), 'accessory-without-spreader')).toEqual([expect.objectContaining({ severity: 'caution', eventId: extra.id })]);
+      const extra = log.add(
+        'extra',
+        'accessory.placed',
+        { size: 'MF', lengthMm: 19.5, reachedLength: true },
+        { after: 'acc1' },
+      );
+      expect(only(log.evaluate(), 'accessory-without-spreader')).toEqual([
+        expect.objectContaining({ severity: 'caution', eventId: extra.id }),
+      ]);
     });
     it('lets a replacement for a withdrawn cone use the same spreader placement', () => {
       const log = canal({ patch: { acc1: { reachedLength: false } } });
@@ -74,8 +91,12 @@ describe('evaluateCanal', () => {
     // Cone measured to the spreader's depth: practice; margin 0.5 mm (one ruler step).
     it('cautions on a cone measured more than 0.5 mm from the spreader depth', () => {
       const log = canal({ patch: { acc1: { lengthMm: 18.5 } } });
-      expect(only(log.evaluate(), 'accessory-length-mismatch')).toEqual([expect.objectContaining({ severity: 'caution', eventId: log.id('acc1') })]);
-      expect(only(canal({ patch: { acc1: { lengthMm: 20.5 } } }).evaluate(), 'accessory-length-mismatch')).toHaveLength(1);
+      expect(only(log.evaluate(), 'accessory-length-mismatch')).toEqual([
+        expect.objectContaining({ severity: 'caution', eventId: log.id('acc1') }),
+      ]);
+      expect(only(canal({ patch: { acc1: { lengthMm: 20.5 } } }).evaluate(), 'accessory-length-mismatch')).toHaveLength(
+        1,
+      );
     });
     it('passes a cone exactly 0.5 mm from the spreader depth either way (practice)', () => {
       expect(only(canal({ patch: { acc1: { lengthMm: 19 } } }).evaluate(), 'accessory-length-mismatch')).toEqual([]);
@@ -111,7 +132,9 @@ describe('evaluateCanal', () => {
     // Accessory cone size matches the spreader: practice.
     it('notes a cone whose size differs from the latest spreader', () => {
       const log = canal({ patch: { acc1: { size: 'FF' } } });
-      expect(only(log.evaluate(), 'accessory-size-mismatch')).toEqual([expect.objectContaining({ severity: 'note', eventId: log.id('acc1') })]);
+      expect(only(log.evaluate(), 'accessory-size-mismatch')).toEqual([
+        expect.objectContaining({ severity: 'note', eventId: log.id('acc1') }),
+      ]);
     });
     it('compares with the spreader of the latest placement before the cone', () => {
       const log = canal({ patch: { sp2: { spreader: 'FF' }, acc2: { size: 'FF' } } });

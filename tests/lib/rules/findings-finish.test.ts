@@ -13,27 +13,44 @@ describe('evaluateCanal', () => {
       expect(f?.message).toContain('12.0 mm');
     });
     it('passes a last spreader exactly at the end of the coronal third (practice)', () => {
-      expect(only(canal({ patch: { sp4: { depthMm: 12 }, acc4: { lengthMm: 12 } } }).evaluate(), 'compaction-incomplete')).toEqual([]);
+      expect(
+        only(canal({ patch: { sp4: { depthMm: 12 }, acc4: { lengthMm: 12 } } }).evaluate(), 'compaction-incomplete'),
+      ).toEqual([]);
     });
     it('uses a recorded orifice depth and then says nothing of an estimate', () => {
       // o = 9, L = 12: the coronal third ends at 13.
       const over = canal({ orificeDepthMm: 9, patch: { sp4: { depthMm: 13.5 }, acc4: { lengthMm: 13.5 } } });
       const [f] = only(over.evaluate(), 'compaction-incomplete');
       expect(f?.message).not.toContain('estimated');
-      expect(only(canal({ orificeDepthMm: 9, patch: { sp4: { depthMm: 13 }, acc4: { lengthMm: 13 } } }).evaluate(), 'compaction-incomplete')).toEqual([]);
+      expect(
+        only(
+          canal({ orificeDepthMm: 9, patch: { sp4: { depthMm: 13 }, acc4: { lengthMm: 13 } } }).evaluate(),
+          'compaction-incomplete',
+        ),
+      ).toEqual([]);
     });
     it('takes a training block’s top as its orifice', () => {
       // Block CWL 21, o = 0: the coronal third ends at 7.
       const log = canal({ setting: 'block', patch: { sp6: { depthMm: 7.5 }, acc6: { lengthMm: 7.5 } } });
       expect(only(log.evaluate(), 'compaction-incomplete')).toHaveLength(1);
-      expect(only(canal({ setting: 'block', patch: { sp6: { depthMm: 7 }, acc6: { lengthMm: 7 } } }).evaluate(), 'compaction-incomplete')).toEqual([]);
+      expect(
+        only(
+          canal({ setting: 'block', patch: { sp6: { depthMm: 7 }, acc6: { lengthMm: 7 } } }).evaluate(),
+          'compaction-incomplete',
+        ),
+      ).toEqual([]);
     });
     it('cautions when no spreader placement was recorded before sear-off', () => {
       const omit = ['sp1', 'acc1', 'sp2', 'acc2', 'sp3', 'acc3', 'sp4', 'acc4'];
       expect(codes(canal({ omit }).evaluate())).toContain('compaction-incomplete');
     });
     it('waits for sear-off', () => {
-      expect(only(canal({ patch: { sp4: { depthMm: 12.5 }, acc4: { lengthMm: 12.5 } }, until: 'fill' }).evaluate(), 'compaction-incomplete')).toEqual([]);
+      expect(
+        only(
+          canal({ patch: { sp4: { depthMm: 12.5 }, acc4: { lengthMm: 12.5 } }, until: 'fill' }).evaluate(),
+          'compaction-incomplete',
+        ),
+      ).toEqual([]);
     });
   });
 
@@ -43,7 +60,9 @@ describe('evaluateCanal', () => {
       const log = canal();
       log.remove('out1', 'acc3', { after: 'acc4' });
       log.remove('out2', 'acc4', { after: 'acc4' });
-      expect(only(log.evaluate(), 'few-accessory-cones')).toEqual([expect.objectContaining({ severity: 'note', eventId: log.id('sear') })]);
+      expect(only(log.evaluate(), 'few-accessory-cones')).toEqual([
+        expect.objectContaining({ severity: 'note', eventId: log.id('sear') }),
+      ]);
     });
     it('passes exactly 3 kept cones', () => {
       const log = canal();
@@ -60,7 +79,9 @@ describe('evaluateCanal', () => {
   describe('fill-check-radiograph-missing', () => {
     it('cautions when a tooth is seared with no fill-check radiograph', () => {
       const log = canal({ omit: ['fill-rad'] });
-      expect(only(log.evaluate(), 'fill-check-radiograph-missing')).toEqual([expect.objectContaining({ severity: 'caution', eventId: log.id('sear') })]);
+      expect(only(log.evaluate(), 'fill-check-radiograph-missing')).toEqual([
+        expect.objectContaining({ severity: 'caution', eventId: log.id('sear') }),
+      ]);
     });
     it('does not count a fill-check radiograph taken before the last cone', () => {
       const log = canal({ omit: ['fill-rad'] });
@@ -76,13 +97,17 @@ describe('evaluateCanal', () => {
     // ESE quality guidelines 2006 (seen, secondary); Jurič et al. 2024 (seen): more than 2 mm short, or past the apex.
     it('cautions on a fill more than 2 mm short', () => {
       const log = canal({ patch: { fill: { length: 'short-over-2' } } });
-      expect(only(log.evaluate(), 'fill-short')).toEqual([expect.objectContaining({ severity: 'caution', eventId: log.id('fill') })]);
+      expect(only(log.evaluate(), 'fill-short')).toEqual([
+        expect.objectContaining({ severity: 'caution', eventId: log.id('fill') }),
+      ]);
     });
     it('accepts a fill 0–2 mm short (ESE 2006 — seen, secondary)', () => {
       expect(codes(canal({ patch: { fill: { length: 'short-0-2' } } }).evaluate())).toEqual([]);
     });
     it('stops a fill beyond the apex and a fill with voids', () => {
-      expect(only(canal({ patch: { fill: { length: 'beyond' } } }).evaluate(), 'fill-beyond')[0]?.severity).toBe('stop');
+      expect(only(canal({ patch: { fill: { length: 'beyond' } } }).evaluate(), 'fill-beyond')[0]?.severity).toBe(
+        'stop',
+      );
       expect(only(canal({ patch: { fill: { voids: true } } }).evaluate(), 'fill-voids')[0]?.severity).toBe('stop');
     });
     it('takes the latest assessment', () => {
@@ -91,7 +116,9 @@ describe('evaluateCanal', () => {
       expect(codes(log.evaluate())).toEqual([]);
     });
     it('applies to a training block too, judged by eye', () => {
-      expect(codes(canal({ setting: 'block', patch: { fill: { length: 'short-over-2' } } }).evaluate())).toEqual(['fill-short']);
+      expect(codes(canal({ setting: 'block', patch: { fill: { length: 'short-over-2' } } }).evaluate())).toEqual([
+        'fill-short',
+      ]);
     });
   });
 
@@ -119,7 +146,9 @@ describe('evaluateCanal', () => {
   describe('restoration-missing', () => {
     it('cautions on a submitted case whose canal access is not restored', () => {
       const log = canal({ omit: ['restore'] });
-      expect(only(log.evaluate(), 'restoration-missing')).toEqual([expect.objectContaining({ severity: 'caution', eventId: log.id('submit') })]);
+      expect(only(log.evaluate(), 'restoration-missing')).toEqual([
+        expect.objectContaining({ severity: 'caution', eventId: log.id('submit') }),
+      ]);
     });
     it('waits for submission', () => {
       expect(codes(canal({ omit: ['restore', 'submit'] }).evaluate())).toEqual([]);
@@ -140,7 +169,9 @@ describe('evaluateCanal', () => {
   describe('postop-radiograph-missing', () => {
     it('cautions on a submitted tooth case with no post-operative radiograph', () => {
       const log = canal({ omit: ['post-op'] });
-      expect(only(log.evaluate(), 'postop-radiograph-missing')).toEqual([expect.objectContaining({ severity: 'caution', eventId: log.id('submit') })]);
+      expect(only(log.evaluate(), 'postop-radiograph-missing')).toEqual([
+        expect.objectContaining({ severity: 'caution', eventId: log.id('submit') }),
+      ]);
     });
     it('counts a post-operative radiograph on the canal', () => {
       const log = canal({ omit: ['post-op'] });

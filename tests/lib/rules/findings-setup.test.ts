@@ -42,7 +42,9 @@ describe('evaluateCanal', () => {
   describe('seat-not-confirmed', () => {
     it('stops a master cone seated with no seat check before it', () => {
       const log = canal({ omit: ['seat'] });
-      expect(only(log.evaluate(), 'seat-not-confirmed')).toEqual([expect.objectContaining({ severity: 'stop', eventId: log.id('seated') })]);
+      expect(only(log.evaluate(), 'seat-not-confirmed')).toEqual([
+        expect.objectContaining({ severity: 'stop', eventId: log.id('seated') }),
+      ]);
     });
     it('stops a seat check that was not at the CWL', () => {
       const log = canal({ patch: { seat: { lengthMm: 20.5 } } });
@@ -77,7 +79,9 @@ describe('evaluateCanal', () => {
   describe('taper-not-checked', () => {
     it('cautions when the master cone is seated with no taper check', () => {
       const log = canal({ omit: ['taper'] });
-      expect(only(log.evaluate(), 'taper-not-checked')).toEqual([expect.objectContaining({ severity: 'caution', eventId: log.id('seated') })]);
+      expect(only(log.evaluate(), 'taper-not-checked')).toEqual([
+        expect.objectContaining({ severity: 'caution', eventId: log.id('seated') }),
+      ]);
     });
     it('does not count a taper check recorded after seating', () => {
       const log = canal({ omit: ['taper'] });
@@ -93,13 +97,17 @@ describe('evaluateCanal', () => {
     // Taper check within 1 mm of the CWL: trade teaching (practice), agrees with Allison 1979 (seen).
     it('stops a taper check more than 1.0 mm short of the CWL', () => {
       const log = canal({ patch: { taper: { depthMm: 19.5 } } });
-      expect(only(log.evaluate(), 'taper-short')).toEqual([expect.objectContaining({ severity: 'stop', eventId: log.id('taper') })]);
+      expect(only(log.evaluate(), 'taper-short')).toEqual([
+        expect.objectContaining({ severity: 'stop', eventId: log.id('taper') }),
+      ]);
     });
     it('passes a taper check exactly 1.0 mm short (practice)', () => {
       expect(only(canal({ patch: { taper: { depthMm: 20 } } }).evaluate(), 'taper-short')).toEqual([]);
     });
     it('answers at once, before the master cone is seated', () => {
-      expect(only(canal({ patch: { taper: { depthMm: 19.5 } }, until: 'taper' }).evaluate(), 'taper-short')).toHaveLength(1);
+      expect(
+        only(canal({ patch: { taper: { depthMm: 19.5 } }, until: 'taper' }).evaluate(), 'taper-short'),
+      ).toHaveLength(1);
     });
     it('takes the latest taper check before seating', () => {
       const better = canal({ patch: { taper: { depthMm: 19 } } });
@@ -124,7 +132,9 @@ describe('evaluateCanal', () => {
   describe('maf-radiograph-missing', () => {
     it('cautions when a tooth’s master cone is seated with no MAF radiograph', () => {
       const log = canal({ omit: ['maf-rad'] });
-      expect(only(log.evaluate(), 'maf-radiograph-missing')).toEqual([expect.objectContaining({ severity: 'caution', eventId: log.id('seated') })]);
+      expect(only(log.evaluate(), 'maf-radiograph-missing')).toEqual([
+        expect.objectContaining({ severity: 'caution', eventId: log.id('seated') }),
+      ]);
     });
     it('does not apply to a training block, and waits for seating', () => {
       expect(codes(canal({ setting: 'block' }).evaluate())).not.toContain('maf-radiograph-missing');
@@ -141,7 +151,9 @@ describe('evaluateCanal', () => {
       expect(f?.message).toContain('did not include EDTA');
     });
     it('names both solutions when no rinse was recorded', () => {
-      expect(only(canal({ omit: ['rinse'] }).evaluate(), 'final-rinse-incomplete')[0]?.message).toContain('sodium hypochlorite or EDTA');
+      expect(only(canal({ omit: ['rinse'] }).evaluate(), 'final-rinse-incomplete')[0]?.message).toContain(
+        'sodium hypochlorite or EDTA',
+      );
     });
     it('adds rinses together over several steps', () => {
       const log = canal({ patch: { rinse: { solutions: ['naocl'] } } });
@@ -158,7 +170,9 @@ describe('evaluateCanal', () => {
   describe('paper-point-long', () => {
     it('stops a paper point measured longer than the CWL', () => {
       const log = canal({ patch: { dry: { measuredMm: 21.5 } } });
-      expect(only(log.evaluate(), 'paper-point-long')).toEqual([expect.objectContaining({ severity: 'stop', eventId: log.id('dry') })]);
+      expect(only(log.evaluate(), 'paper-point-long')).toEqual([
+        expect.objectContaining({ severity: 'stop', eventId: log.id('dry') }),
+      ]);
     });
     it('passes a paper point exactly at the CWL', () => {
       expect(only(canal({ patch: { dry: { measuredMm: 21 } } }).evaluate(), 'paper-point-long')).toEqual([]);
@@ -174,7 +188,9 @@ describe('evaluateCanal', () => {
     // Master cone of the MAF's ISO size: trade teaching (practice).
     it('cautions when the master cone size differs from the MAF', () => {
       const log = canal({ patch: { fit: { size: '35' } } });
-      expect(only(log.evaluate(), 'master-size-mismatch')).toEqual([expect.objectContaining({ severity: 'caution', eventId: log.id('fit') })]);
+      expect(only(log.evaluate(), 'master-size-mismatch')).toEqual([
+        expect.objectContaining({ severity: 'caution', eventId: log.id('fit') }),
+      ]);
     });
     it('judges only the latest fit', () => {
       const log = canal({ patch: { fit: { size: '35' } } });
@@ -187,7 +203,9 @@ describe('evaluateCanal', () => {
     // Master cone to the full CWL: practice; margin 0.5 mm (one source seats it 0.5 mm short).
     it('stops a master cone that did not reach', () => {
       const log = canal({ patch: { fit: { reachedLength: false } } });
-      expect(only(log.evaluate(), 'master-length-mismatch')).toEqual([expect.objectContaining({ severity: 'stop', eventId: log.id('fit') })]);
+      expect(only(log.evaluate(), 'master-length-mismatch')).toEqual([
+        expect.objectContaining({ severity: 'stop', eventId: log.id('fit') }),
+      ]);
     });
     it('stops a fit more than 0.5 mm from the CWL either way', () => {
       expect(only(canal({ patch: { fit: { lengthMm: 20 } } }).evaluate(), 'master-length-mismatch')).toHaveLength(1);
@@ -202,7 +220,9 @@ describe('evaluateCanal', () => {
   describe('cone-fit-radiograph-missing', () => {
     it('cautions when a tooth’s master cone is seated with no cone-fit radiograph', () => {
       const log = canal({ omit: ['cone-fit-rad'] });
-      expect(only(log.evaluate(), 'cone-fit-radiograph-missing')).toEqual([expect.objectContaining({ severity: 'caution', eventId: log.id('seated') })]);
+      expect(only(log.evaluate(), 'cone-fit-radiograph-missing')).toEqual([
+        expect.objectContaining({ severity: 'caution', eventId: log.id('seated') }),
+      ]);
     });
     it('does not count a cone-fit radiograph taken before any fit', () => {
       const log = canal({ omit: ['cone-fit-rad'] });
@@ -215,7 +235,9 @@ describe('evaluateCanal', () => {
       expect(codes(log.evaluate())).toEqual([]);
     });
     it('does not apply to a training block', () => {
-      expect(codes(canal({ setting: 'block', omit: ['cone-fit-rad'] }).evaluate())).not.toContain('cone-fit-radiograph-missing');
+      expect(codes(canal({ setting: 'block', omit: ['cone-fit-rad'] }).evaluate())).not.toContain(
+        'cone-fit-radiograph-missing',
+      );
     });
   });
 
@@ -223,8 +245,15 @@ describe('evaluateCanal', () => {
     // Retake when the cone is changed by 1 mm or more: trade teaching (practice).
     it('cautions when the cone is refitted 1.0 mm from the length the radiograph showed', () => {
       const log = canal();
-      const refit = log.add('refit', 'master.fitted', { size: '30', lengthMm: 20, reachedLength: true }, { after: 'cone-fit-rad' });
-      expect(only(log.evaluate(), 'cone-fit-retake-needed')).toEqual([expect.objectContaining({ severity: 'caution', eventId: refit.id })]);
+      const refit = log.add(
+        'refit',
+        'master.fitted',
+        { size: '30', lengthMm: 20, reachedLength: true },
+        { after: 'cone-fit-rad' },
+      );
+      expect(only(log.evaluate(), 'cone-fit-retake-needed')).toEqual([
+        expect.objectContaining({ severity: 'caution', eventId: refit.id }),
+      ]);
     });
     it('needs no retake for a 0.5 mm change (practice)', () => {
       const log = canal();

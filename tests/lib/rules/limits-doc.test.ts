@@ -17,6 +17,7 @@ describe('LIMITS', () => {
     expect(documentedLimits()).toEqual({ ...LIMITS });
   });
   it('are the numbers the messages give', () => {
-    for (const [limit, message] of Object.entries(LIMIT_MESSAGES)) expect(message).toContain(` ${LIMITS[limit as keyof typeof LIMIT_MESSAGES]} `);
+    for (const [limit, message] of Object.entries(LIMIT_MESSAGES))
+      expect(message).toContain(` ${LIMITS[limit as keyof typeof LIMIT_MESSAGES]} `);
   });
 });

@@ -5,7 +5,12 @@ let n = 0;
 const id = () => `e${++n}`;
 const added = (canalId: string): TallyEvent => ({ id: id(), type: 'canal.added', canalId });
 const step = (canalId: string | null): TallyEvent => ({ id: id(), type: 'spreader.placed', canalId });
-const voids = (target: TallyEvent): TallyEvent => ({ id: id(), type: 'event.voided', canalId: target.canalId ?? null, eventId: target.id });
+const voids = (target: TallyEvent): TallyEvent => ({
+  id: id(),
+  type: 'event.voided',
+  canalId: target.canalId ?? null,
+  eventId: target.id,
+});
 
 /** A tally holding `count` canals set up, and their canal.added events. */
 function withCanals(count: number): { tally: CaseTally; setUps: TallyEvent[] } {
@@ -21,11 +26,14 @@ describe('CaseTally.breach', () => {
     const last = added('last');
     expect(tally.breach(last)).toBeNull();
     tally.add(last);
-    expect(tally.breach(added('one-too-many'))).toEqual({ limit: 'canalsPerCase', error: LIMIT_MESSAGES.canalsPerCase });
+    expect(tally.breach(added('one-too-many'))).toEqual({
+      limit: 'canalsPerCase',
+      error: LIMIT_MESSAGES.canalsPerCase,
+    });
     expect(LIMIT_MESSAGES.canalsPerCase).toMatch(/8 canals.*withdraw/);
   });
 
-  it('frees a canal\'s place when its set-up is withdrawn, and takes it back when that withdrawal is withdrawn', () => {
+  it("frees a canal's place when its set-up is withdrawn, and takes it back when that withdrawal is withdrawn", () => {
     const { tally, setUps } = withCanals(LIMITS.canalsPerCase);
     const undo = voids(setUps[2]!);
     expect(tally.breach(undo)).toBeNull();
@@ -57,14 +65,22 @@ describe('CaseTally.breach', () => {
     tally.addCount(null, LIMITS.caseLevelEventsPerCase - 1);
     expect(tally.breach(step(null))).toBeNull();
     tally.add(step(null));
-    expect(tally.breach(step(null))).toEqual({ limit: 'caseLevelEventsPerCase', error: LIMIT_MESSAGES.caseLevelEventsPerCase });
+    expect(tally.breach(step(null))).toEqual({
+      limit: 'caseLevelEventsPerCase',
+      error: LIMIT_MESSAGES.caseLevelEventsPerCase,
+    });
     expect(tally.breach(step('canal-0'))).toBeNull();
   });
 });
 
 describe('tallyOf', () => {
-  it('reads a case\'s events as the tablet keeps them, withdrawn set-ups freeing their place', () => {
-    const wire = (e: TallyEvent) => ({ id: e.id, type: e.type, ...(e.canalId ? { canalId: e.canalId } : {}), data: e.eventId ? { eventId: e.eventId, reason: '' } : {} });
+  it("reads a case's events as the tablet keeps them, withdrawn set-ups freeing their place", () => {
+    const wire = (e: TallyEvent) => ({
+      id: e.id,
+      type: e.type,
+      ...(e.canalId ? { canalId: e.canalId } : {}),
+      data: e.eventId ? { eventId: e.eventId, reason: '' } : {},
+    });
     const setUps = Array.from({ length: LIMITS.canalsPerCase }, (_, i) => added(`c${i}`));
     const undo = voids(setUps[0]!);
     expect(tallyOf(setUps.map(wire)).breach(added('x'))?.limit).toBe('canalsPerCase');

@@ -7,8 +7,13 @@ import { eventSchema, parseEvent } from '../../../src/lib/rules';
 import { NOW, uuidFor } from './builder';
 
 const ev = (extra: Record<string, unknown> = {}) => ({
-  id: uuidFor(1), caseId: uuidFor(2), canalId: uuidFor(3), type: 'spreader.placed', at: '2026-12-02T09:41:07.250Z',
-  data: { spreader: 'MF', depthMm: 13.5 }, ...extra,
+  id: uuidFor(1),
+  caseId: uuidFor(2),
+  canalId: uuidFor(3),
+  type: 'spreader.placed',
+  at: '2026-12-02T09:41:07.250Z',
+  data: { spreader: 'MF', depthMm: 13.5 },
+  ...extra,
 });
 const opened = (data: unknown) => {
   const e: Record<string, unknown> = ev({ type: 'case.opened', data });
@@ -20,16 +25,29 @@ const error = (raw: unknown) => {
   return r.ok ? 'accepted' : r.error;
 };
 const AT_MESSAGE = 'at must be an ISO 8601 instant with a time zone, such as 2026-12-02T09:41:07.250Z';
-const FRACTION_MESSAGE = 'at may have at most 3 digits after the seconds (milliseconds), such as 2026-12-02T09:41:07.250Z';
+const FRACTION_MESSAGE =
+  'at may have at most 3 digits after the seconds (milliseconds), such as 2026-12-02T09:41:07.250Z';
 
 describe('at', () => {
   // Every form taken before the fraction rule (offsets with or without a colon, no seconds)
   // is still taken: the contract only grows.
   const accepted = [
-    '2026-12-02T09:41:07+0100', '2026-12-02T09:41:07-23:59', '2026-12-02T09:41Z', '2024-02-29T09:00:00Z',
-    '2026-12-02T09:41:07.1Z', '2026-12-02T09:41:07.25+01:00', '2026-12-02T09:41:07.250Z', '2026-12-02T09:41:07.123-0530',
+    '2026-12-02T09:41:07+0100',
+    '2026-12-02T09:41:07-23:59',
+    '2026-12-02T09:41Z',
+    '2024-02-29T09:00:00Z',
+    '2026-12-02T09:41:07.1Z',
+    '2026-12-02T09:41:07.25+01:00',
+    '2026-12-02T09:41:07.250Z',
+    '2026-12-02T09:41:07.123-0530',
   ];
-  const refused = ['2026-12-02T09:41:07+99:99', '2026-02-29T09:00:00Z', '2026-12-02t09:41:07Z', '2026-12-02T24:00:00Z', '2026-12-02T09:41:07'];
+  const refused = [
+    '2026-12-02T09:41:07+99:99',
+    '2026-02-29T09:00:00Z',
+    '2026-12-02t09:41:07Z',
+    '2026-12-02T24:00:00Z',
+    '2026-12-02T09:41:07',
+  ];
   it('takes what zod’s datetime({ offset: true }) takes and Date can read, kept as written', () => {
     const zodInstant = z.string().datetime({ offset: true });
     for (const at of [...accepted, ...refused]) {
@@ -40,7 +58,11 @@ describe('at', () => {
     expect(accepted.map((at) => error(ev({ at })))).toEqual(accepted.map(() => 'accepted'));
   });
   it('refuses more than 3 digits after the seconds, saying so', () => {
-    for (const at of ['2026-12-02T09:41:07.1234Z', '2026-12-02T09:41:07.123456789Z', '2026-12-02T09:41:07.0000+01:00']) {
+    for (const at of [
+      '2026-12-02T09:41:07.1234Z',
+      '2026-12-02T09:41:07.123456789Z',
+      '2026-12-02T09:41:07.0000+01:00',
+    ]) {
       expect(error(ev({ at })), at).toBe(FRACTION_MESSAGE);
     }
   });
@@ -61,8 +83,10 @@ describe('optional fields', () => {
 
 describe('objects', () => {
   it('refuses an event or data that zod does not read as an object', () => {
-    for (const x of [new Date(0), new Map(), [], Promise.resolve(1), () => 1]) expect(error(x)).toBe('the event must be an object');
-    for (const d of [new Date(0), new Map(), [], null, 'x', Promise.resolve(1)]) expect(error(ev({ data: d }))).toBe('data must be an object');
+    for (const x of [new Date(0), new Map(), [], Promise.resolve(1), () => 1])
+      expect(error(x)).toBe('the event must be an object');
+    for (const d of [new Date(0), new Map(), [], null, 'x', Promise.resolve(1)])
+      expect(error(ev({ data: d }))).toBe('data must be an object');
     expect(error(ev({ type: 'gp.compacted', data: null }))).toBe('accepted');
     expect(error(ev({ type: 'gp.compacted', data: [] }))).toBe('data must be an object');
   });
@@ -77,18 +101,30 @@ describe('problems', () => {
     expect(error(ev({ at: 'y', data: { depthMm: 0.2 } }))).toBe(AT_MESSAGE);
     const r = eventSchema.safeParse(opened({ setting: 'patient', tooth: 99 }));
     expect(r.success ? [] : r.error.issues).toEqual([
-      { code: 'custom', path: ['data', 'tooth'], message: expect.stringContaining('tooth must be an FDI tooth number') },
+      {
+        code: 'custom',
+        path: ['data', 'tooth'],
+        message: expect.stringContaining('tooth must be an FDI tooth number'),
+      },
       { code: 'custom', path: ['data', 'chartRef'], message: 'chartRef is required for a patient' },
     ]);
   });
   it('each carry their path in eventSchema', () => {
     const r = eventSchema.safeParse(ev({ id: 'x', data: { spreader: 'mf', depthMm: 13.25 } }));
     expect(r.success ? [] : r.error.issues.map((i) => [i.path.join('.'), i.code])).toEqual([
-      ['id', 'custom'], ['data.spreader', 'custom'], ['data.depthMm', 'custom'],
+      ['id', 'custom'],
+      ['data.spreader', 'custom'],
+      ['data.depthMm', 'custom'],
     ]);
     const d = eventSchema.safeParse(ev({ data: 7 }));
     expect(d.success ? [] : d.error.issues).toEqual([
-      { code: 'invalid_type', expected: 'object', received: 'number', path: ['data'], message: 'data must be an object' },
+      {
+        code: 'invalid_type',
+        expected: 'object',
+        received: 'number',
+        path: ['data'],
+        message: 'data must be an object',
+      },
     ]);
   });
 });

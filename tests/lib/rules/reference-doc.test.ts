@@ -43,8 +43,15 @@ describe('FINDINGS', () => {
 describe('DEFAULT_TOLERANCES', () => {
   it('holds rules.md’s defaults: 4, 1.0, 0.5, 1.0, 2.0, 0.5, 3, 12, 2', () => {
     expect(DEFAULT_TOLERANCES).toEqual({
-      cwlUnusualMarginMm: 4, taperShortMarginMm: 1, masterLengthMarginMm: 0.5, coneFitRetakeThresholdMm: 1,
-      firstSpreaderMarginMm: 2, accessoryLengthMarginMm: 0.5, minAccessoryCones: 3, fallbackStopDepthMm: 12, fillShortLimitMm: 2,
+      cwlUnusualMarginMm: 4,
+      taperShortMarginMm: 1,
+      masterLengthMarginMm: 0.5,
+      coneFitRetakeThresholdMm: 1,
+      firstSpreaderMarginMm: 2,
+      accessoryLengthMarginMm: 0.5,
+      minAccessoryCones: 3,
+      fallbackStopDepthMm: 12,
+      fillShortLimitMm: 2,
     });
   });
 });
@@ -69,7 +76,13 @@ describe('the rules module', () => {
   it('bundles for the browser with zod as its only dependency', async () => {
     const { build } = await import('esbuild');
     const out = await build({
-      entryPoints: [new URL('index.ts', dir).pathname], bundle: true, platform: 'browser', format: 'esm', write: false, metafile: true, logLevel: 'silent',
+      entryPoints: [new URL('index.ts', dir).pathname],
+      bundle: true,
+      platform: 'browser',
+      format: 'esm',
+      write: false,
+      metafile: true,
+      logLevel: 'silent',
     });
     const inputs = Object.keys(out.metafile.inputs);
     expect(inputs.filter((p) => !p.includes('src/lib/rules/') && !p.includes('node_modules/zod/'))).toEqual([]);
@@ -78,7 +91,13 @@ describe('the rules module', () => {
   it('bundles core.ts, the browser’s entry, without zod or anything else outside the module', async () => {
     const { build } = await import('esbuild');
     const out = await build({
-      entryPoints: [new URL('core.ts', dir).pathname], bundle: true, platform: 'browser', format: 'esm', write: false, metafile: true, logLevel: 'silent',
+      entryPoints: [new URL('core.ts', dir).pathname],
+      bundle: true,
+      platform: 'browser',
+      format: 'esm',
+      write: false,
+      metafile: true,
+      logLevel: 'silent',
     });
     const inputs = Object.keys(out.metafile.inputs);
     expect(inputs.filter((p) => p.includes('zod'))).toEqual([]);

@@ -1,9 +1,40 @@
 import { describe, expect, it } from 'vitest';
-import { diameterAtMm, isConeSize, isIsoSize, isoColour, ISO_SIZES, NON_STANDARD_SIZES, normaliseSize, tipDiameterMm } from '../../../src/lib/rules';
+import {
+  diameterAtMm,
+  isConeSize,
+  isIsoSize,
+  isoColour,
+  ISO_SIZES,
+  NON_STANDARD_SIZES,
+  normaliseSize,
+  tipDiameterMm,
+} from '../../../src/lib/rules';
 
 describe('ISO_SIZES', () => {
   it('lists 06, 08, 10, then 15–60 by 5, then 70–140 by 10 (ISO 3630-1 as summarised — partly)', () => {
-    expect(ISO_SIZES).toEqual(['06', '08', '10', '15', '20', '25', '30', '35', '40', '45', '50', '55', '60', '70', '80', '90', '100', '110', '120', '130', '140']);
+    expect(ISO_SIZES).toEqual([
+      '06',
+      '08',
+      '10',
+      '15',
+      '20',
+      '25',
+      '30',
+      '35',
+      '40',
+      '45',
+      '50',
+      '55',
+      '60',
+      '70',
+      '80',
+      '90',
+      '100',
+      '110',
+      '120',
+      '130',
+      '140',
+    ]);
   });
 });
 
@@ -35,17 +66,39 @@ describe('normaliseSize', () => {
   it('keeps strings as written and refuses anything else', () => {
     expect(normaliseSize('35')).toBe('35');
     expect(normaliseSize('XF')).toBe('XF');
-    for (const bad of ['6', 'mf', ' 35', 35.5, 65, -10, 0, null, undefined, {}, [], true, Number.NaN]) expect(normaliseSize(bad)).toBeNull();
+    for (const bad of ['6', 'mf', ' 35', 35.5, 65, -10, 0, null, undefined, {}, [], true, Number.NaN])
+      expect(normaliseSize(bad)).toBeNull();
   });
 });
 
 describe('isoColour', () => {
   it('gives white, yellow, red, blue, green, black for 15–40 (ISO 3630-1 as summarised — seen)', () => {
-    expect(['15', '20', '25', '30', '35', '40'].map((s) => isoColour(s)?.name)).toEqual(['white', 'yellow', 'red', 'blue', 'green', 'black']);
+    expect(['15', '20', '25', '30', '35', '40'].map((s) => isoColour(s)?.name)).toEqual([
+      'white',
+      'yellow',
+      'red',
+      'blue',
+      'green',
+      'black',
+    ]);
   });
   it('repeats the cycle for 45–80 and 90–140 (ISO 3630-1 as summarised — partly)', () => {
-    expect(['45', '50', '55', '60', '70', '80'].map((s) => isoColour(s)?.name)).toEqual(['white', 'yellow', 'red', 'blue', 'green', 'black']);
-    expect(['90', '100', '110', '120', '130', '140'].map((s) => isoColour(s)?.name)).toEqual(['white', 'yellow', 'red', 'blue', 'green', 'black']);
+    expect(['45', '50', '55', '60', '70', '80'].map((s) => isoColour(s)?.name)).toEqual([
+      'white',
+      'yellow',
+      'red',
+      'blue',
+      'green',
+      'black',
+    ]);
+    expect(['90', '100', '110', '120', '130', '140'].map((s) => isoColour(s)?.name)).toEqual([
+      'white',
+      'yellow',
+      'red',
+      'blue',
+      'green',
+      'black',
+    ]);
   });
   it('gives 06 pink, 08 grey, 10 purple (ISO 3630-1 — memory)', () => {
     expect(['06', '08', '10'].map((s) => isoColour(s)?.name)).toEqual(['pink', 'grey', 'purple']);

@@ -1,10 +1,20 @@
 import { describe, expect, it } from 'vitest';
-import { averageLengthMm, fdiToUniversal, isValidFdi, referencePointsFor, toothGroup, toothName, universalToFdi, usualCanals } from '../../../src/lib/rules';
+import {
+  averageLengthMm,
+  fdiToUniversal,
+  isValidFdi,
+  referencePointsFor,
+  toothGroup,
+  toothName,
+  universalToFdi,
+  usualCanals,
+} from '../../../src/lib/rules';
 
 describe('isValidFdi', () => {
   it('accepts quadrants 1–4 with teeth 1–8 and primary quadrants 5–8 with teeth 1–5 (ISO 3950 — seen)', () => {
     for (const n of [11, 18, 28, 36, 48, 51, 55, 65, 75, 85]) expect(isValidFdi(n), String(n)).toBe(true);
-    for (const n of [10, 19, 49, 56, 59, 86, 90, 9, 0, -11, 36.5, Number.NaN]) expect(isValidFdi(n), String(n)).toBe(false);
+    for (const n of [10, 19, 49, 56, 59, 86, 90, 9, 0, -11, 36.5, Number.NaN])
+      expect(isValidFdi(n), String(n)).toBe(false);
   });
 });
 
@@ -41,10 +51,24 @@ describe('universalToFdi', () => {
 
 describe('toothGroup', () => {
   it('groups a mandibular left first molar', () => {
-    expect(toothGroup(36)).toEqual({ arch: 'mandibular', kind: 'molar', anterior: false, primary: false, side: 'left' });
+    expect(toothGroup(36)).toEqual({
+      arch: 'mandibular',
+      kind: 'molar',
+      anterior: false,
+      primary: false,
+      side: 'left',
+    });
   });
   it('counts FDI x1–x3 as anterior (dental anatomy — memory)', () => {
-    expect([11, 12, 13, 14, 43, 53, 54].map((n) => toothGroup(n).anterior)).toEqual([true, true, true, false, true, true, false]);
+    expect([11, 12, 13, 14, 43, 53, 54].map((n) => toothGroup(n).anterior)).toEqual([
+      true,
+      true,
+      true,
+      false,
+      true,
+      true,
+      false,
+    ]);
   });
   it('calls primary teeth 4 and 5 molars', () => {
     expect(toothGroup(54)).toMatchObject({ kind: 'molar', primary: true, arch: 'maxillary', side: 'right' });

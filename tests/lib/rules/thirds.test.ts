@@ -3,10 +3,22 @@ import { canalThirds, DEFAULT_TOLERANCES } from '../../../src/lib/rules';
 
 describe('canalThirds', () => {
   it('divides the canal from a recorded orifice to the CWL', () => {
-    expect(canalThirds(21, 9)).toEqual({ orificeMm: 9, coronalEndMm: 13, middleEndMm: 17, cwlMm: 21, estimated: false });
+    expect(canalThirds(21, 9)).toEqual({
+      orificeMm: 9,
+      coronalEndMm: 13,
+      middleEndMm: 17,
+      cwlMm: 21,
+      estimated: false,
+    });
   });
   it('puts the orifice at 7.5 mm for a CWL of 21 mm with the 12 mm fallback stop depth (rules.md; practice: 10–12 mm from a cusp tip)', () => {
-    expect(canalThirds(21, undefined)).toEqual({ orificeMm: 7.5, coronalEndMm: 12, middleEndMm: 16.5, cwlMm: 21, estimated: true });
+    expect(canalThirds(21, undefined)).toEqual({
+      orificeMm: 7.5,
+      coronalEndMm: 12,
+      middleEndMm: 16.5,
+      cwlMm: 21,
+      estimated: true,
+    });
   });
   it('keeps the estimate within 0 and half the CWL', () => {
     expect(canalThirds(40, undefined).orificeMm).toBe(0);

@@ -16,7 +16,10 @@ afterEach(() => rmSync(dir, { recursive: true, force: true }));
 async function holderProcess(dataDir: string) {
   const code = `import { holdDatabaseLock } from './src/lib/server/data-lock.ts'; holdDatabaseLock(process.argv[1]); console.log('held'); setInterval(() => {}, 1000);`;
   // tsx as a loader in this one process (its CLI would start a second one, which a kill misses).
-  const child = spawn(process.execPath, ['--import', 'tsx', '--input-type=module', '--eval', code, dataDir], { cwd: ROOT, stdio: ['ignore', 'pipe', 'inherit'] });
+  const child = spawn(process.execPath, ['--import', 'tsx', '--input-type=module', '--eval', code, dataDir], {
+    cwd: ROOT,
+    stdio: ['ignore', 'pipe', 'inherit'],
+  });
   await new Promise<void>((resolve, reject) => {
     child.stdout.on('data', (d: Buffer) => d.toString().includes('held') && resolve());
     child.once('exit', (c) => reject(new Error(`the holder exited with ${c}`)));

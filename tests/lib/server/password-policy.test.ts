@@ -35,9 +35,13 @@ describe('passwordProblem', () => {
   });
 
   it('stays on the server: nothing the browser loads holds the list (the built client)', () => {
-    const files = readdirSync(join(ROOT, 'dist/client'), { recursive: true, encoding: 'utf8' }).filter((f) => /\.(m?js|html)$/.test(f));
+    const files = readdirSync(join(ROOT, 'dist/client'), { recursive: true, encoding: 'utf8' }).filter((f) =>
+      /\.(m?js|html)$/.test(f),
+    );
     expect(files.length).toBeGreaterThan(0);
-    const holding = files.filter((f) => /zxcvbn|passwords-common|qwertyuiop/.test(readFileSync(join(ROOT, 'dist/client', f), 'utf8')));
+    const holding = files.filter((f) =>
+      /zxcvbn|passwords-common|qwertyuiop/.test(readFileSync(join(ROOT, 'dist/client', f), 'utf8')),
+    );
     expect(holding).toEqual([]);
   });
 });

@@ -17,12 +17,19 @@ vi.mock('../../../src/lib/rules/index', async (importOriginal) => {
     },
   };
 });
-const { evaluateCanal } = await vi.importActual<typeof import('../../../src/lib/rules/index')>('../../../src/lib/rules/index');
+const { evaluateCanal } =
+  await vi.importActual<typeof import('../../../src/lib/rules/index')>('../../../src/lib/rules/index');
 
 let db: SyncDb;
-beforeAll(async () => { db = await syncDb(); });
-afterAll(async () => { await db.close(); });
-beforeEach(() => { seen.length = 0; });
+beforeAll(async () => {
+  db = await syncDb();
+});
+afterAll(async () => {
+  await db.close();
+});
+beforeEach(() => {
+  seen.length = 0;
+});
 
 /** A case with two canals half way through, stored; the writer goes on from there. */
 async function twoCanals() {
@@ -38,14 +45,36 @@ async function twoCanals() {
 }
 
 const allOf = async (caseId: string) =>
-  ((await db.k('events').where({ case_id: caseId }).select('id', 'case_id', 'canal_id', 'type', 'at', 'data_json')) as
-    { id: string; case_id: string; canal_id: string | null; type: string; at: string; data_json: string }[])
-    .map((r) => ({ id: r.id, caseId: r.case_id, ...(r.canal_id ? { canalId: r.canal_id } : {}), type: r.type, at: r.at, data: JSON.parse(r.data_json) }) as LogEvent);
+  (
+    (await db
+      .k('events')
+      .where({ case_id: caseId })
+      .select('id', 'case_id', 'canal_id', 'type', 'at', 'data_json')) as {
+      id: string;
+      case_id: string;
+      canal_id: string | null;
+      type: string;
+      at: string;
+      data_json: string;
+    }[]
+  ).map(
+    (r) =>
+      ({
+        id: r.id,
+        caseId: r.case_id,
+        ...(r.canal_id ? { canalId: r.canal_id } : {}),
+        type: r.type,
+        at: r.at,
+        data: JSON.parse(r.data_json),
+      }) as LogEvent,
+  );
 
 describe('ingestBatch, recomputing canals', () => {
-  it('evaluates only the canal a batch touched, with that canal\'s and the case-level events', async () => {
+  it("evaluates only the canal a batch touched, with that canal's and the case-level events", async () => {
     const { w, d } = await twoCanals();
-    const { canals } = await ingestBatch(db.k, db.ana, 'tablet', [w.add('taper.checked', { spreader: 'MF', depthMm: 20 }, d)]);
+    const { canals } = await ingestBatch(db.k, db.ana, 'tablet', [
+      w.add('taper.checked', { spreader: 'MF', depthMm: 20 }, d),
+    ]);
     expect(seen.map((s) => s.canalId)).toEqual([d]);
     expect(seen[0]!.events.every((e) => e.canalId === undefined || e.canalId === d)).toBe(true);
     expect(canals).toEqual([evaluateCanal(d, await allOf(w.caseId))]);

@@ -13,7 +13,12 @@ import { json, jsonError } from '../../../lib/server/http';
 import { sessionOf } from '../../../lib/server/session-cache';
 import { sessionIdOf, userFromSession } from '../../../lib/server/session';
 import { endSession } from '../../../lib/server/sessions';
-import { MAX_EMAIL_LENGTH, MAX_PASSWORD_LENGTH, MAX_SIGNIN_BODY_BYTES, signinAttempt } from '../../../lib/server/signin-attempt';
+import {
+  MAX_EMAIL_LENGTH,
+  MAX_PASSWORD_LENGTH,
+  MAX_SIGNIN_BODY_BYTES,
+  signinAttempt,
+} from '../../../lib/server/signin-attempt';
 import { recordSigninFailure, recordSigninSuccess, signinHold } from '../../../lib/server/signin-limits';
 
 export const prerender = false;
@@ -83,7 +88,10 @@ async function session(ctx: APIContext): Promise<Response> {
   const signedIn = decoded ? await userFromSession(decoded) : null;
   if (!signedIn) return json(null);
   const { user } = signedIn;
-  return json({ user: { id: user.id, name: user.name, email: user.email, role: user.role }, expires: decoded?.expires });
+  return json({
+    user: { id: user.id, name: user.name, email: user.email, role: user.role },
+    expires: decoded?.expires,
+  });
 }
 
 export const GET: APIRoute = async (ctx) => {
