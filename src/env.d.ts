@@ -1,6 +1,6 @@
 /// <reference types="astro/client" />
 
-type Role = 'student' | 'attending' | 'director';
+type Role = import('./lib/contract').Role;
 
 interface SessionUser {
   id: number;

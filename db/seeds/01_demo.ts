@@ -32,7 +32,7 @@ export async function seed(knex: Knex): Promise<void> {
   const [cohort] = await knex('cohorts')
     .insert({ ...COHORT, demo: true })
     .returning('id');
-  const cohortId = typeof cohort === 'object' ? (cohort as { id: number }).id : (cohort as number);
+  const cohortId = cohort!.id;
   const password_hash = await hashPassword(DEMO_PASSWORD);
   const ids = new Map<string, number>();
   for (const p of PEOPLE) {
@@ -46,7 +46,7 @@ export async function seed(knex: Knex): Promise<void> {
         cohort_id: p.role === 'student' ? cohortId : null,
       })
       .returning('id');
-    ids.set(p.key, typeof row === 'object' ? (row as { id: number }).id : (row as number));
+    ids.set(p.key, row!.id);
   }
   await knex('assignments').insert(ASSIGNMENTS.map(([a, s]) => ({ attending_id: ids.get(a), student_id: ids.get(s) })));
 

@@ -31,7 +31,7 @@ async function addAccount(email: string, password = DEMO.password): Promise<numb
     const [row] = await k('users')
       .insert({ email, name: 'Session Tester', role: 'student', password_hash: await hashPassword(password) })
       .returning('id');
-    return typeof row === 'object' ? (row as { id: number }).id : (row as number);
+    return row!.id;
   });
 }
 

@@ -160,7 +160,7 @@ describe('the limits on failed sign-ins', () => {
     try {
       const rows = await k('signin_limits').where('key', 'like', 'pair:held.pair@larkfield.example|%');
       expect(rows).toHaveLength(1);
-      expect(rows[0].points).toBeGreaterThanOrEqual(5);
+      expect(rows[0]!.points).toBeGreaterThanOrEqual(5);
     } finally {
       await k.destroy();
     }

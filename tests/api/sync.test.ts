@@ -104,7 +104,7 @@ describe('POST /api/sync', () => {
     expect(body.results[0]).toMatchObject({ id: e.id, status: 'rejected' });
     expect(body.results[0]!.error).toMatch(/already used for a different event/);
     const row = await k('events').where({ id: e.id }).first();
-    expect(JSON.parse(row.data_json).depthMm).toBe(19);
+    expect(JSON.parse(row!.data_json).depthMm).toBe(19);
   });
 
   it('keeps the good events of a mixed batch and says why each bad one was refused', async () => {
@@ -187,7 +187,7 @@ describe('POST /api/sync', () => {
     w.add('case.submitted');
     await sync(mira, w.events);
     const row = await k('cases').where({ id: w.caseId }).first();
-    expect(row.review_status).toBe('submitted');
+    expect(row!.review_status).toBe('submitted');
   });
 
   it('records who sent each event and from which device', async () => {
@@ -234,13 +234,13 @@ describe('POST /api/sync, edge cases', () => {
     w.textbook(w.canal('Main', 18), 18, 3);
     const submitted = w.add('case.submitted');
     await sync(mira, w.events);
-    expect((await k('cases').where({ id: w.caseId }).first()).review_status).toBe('submitted');
+    expect((await k('cases').where({ id: w.caseId }).first())!.review_status).toBe('submitted');
     const undo = w.add('event.voided', { eventId: submitted.id, reason: 'tapped by mistake' });
     const { body } = await sync(mira, [undo]);
     expect(body.results[0]!.status).toBe('stored');
     const row = await k('cases').where({ id: w.caseId }).first();
-    expect(row.review_status).toBe('open');
-    expect(row.submitted_at).toBeNull();
+    expect(row!.review_status).toBe('open');
+    expect(row!.submitted_at).toBeNull();
     expect(body.canals[0]!.state.status).not.toBe('submitted');
   });
 
@@ -251,7 +251,7 @@ describe('POST /api/sync, edge cases', () => {
     const submitted = w.add('case.submitted');
     w.add('event.voided', { eventId: submitted.id, reason: 'tapped by mistake' });
     await sync(mira, w.events);
-    expect((await k('cases').where({ id: w.caseId }).first()).review_status).toBe('open');
+    expect((await k('cases').where({ id: w.caseId }).first())!.review_status).toBe('open');
   });
 
   it("answers a returned case's canals with the same status in the sync answer as on reading", async () => {

@@ -97,7 +97,7 @@ describe('the migrations', () => {
     expect(await k('users').first('demo')).toMatchObject({ demo: 0 });
     expect(await k('cohorts').first('demo')).toMatchObject({ demo: 0 });
     await k.migrate.down({ migrationSource: bundledMigrations });
-    const user = (await k('users').first()) as Record<string, unknown>;
+    const user: unknown = await k("users").first();
     expect(user).not.toHaveProperty('demo');
     // Rebuilding the tables must not fire their foreign keys' ON DELETE actions.
     expect(user).toMatchObject({ email: 'real@example.org', cohort_id: cohortId });

@@ -20,7 +20,7 @@ export async function syncDb(): Promise<SyncDb> {
   await k.migrate.latest({ migrationSource: bundledMigrations });
   const id = async (email: string) => {
     const [row] = await k('users').insert({ email, name: email, role: 'student' }).returning('id');
-    return typeof row === 'object' ? (row as { id: number }).id : (row as number);
+    return row!.id;
   };
   const ana = await id('ana@test.example');
   const ben = await id('ben@test.example');

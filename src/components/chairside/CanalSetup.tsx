@@ -40,7 +40,7 @@ export function CanalSetup(props: {
   const [preparation, setPreparation] = useState('step-back');
   const [spreader, setSpreader] = useState('MF');
   const [accessory, setAccessory] = useState('MF');
-  const [sealer, setSealer] = useState('epoxy-resin');
+  const [sealer, setSealer] = useState<(typeof SEALERS)[number][0]>('epoxy-resin');
   const [orifice, setOrifice] = useState<number | undefined>(block ? 0 : undefined);
 
   const refText = referencePoint === 'other' ? otherPoint.trim() : referencePoint;

@@ -10,13 +10,14 @@ const LENGTHS = [
   ['short-over-2', 'Over 2 mm short'],
   ['beyond', 'Beyond the apex'],
 ] as const;
+type FillLength = (typeof LENGTHS)[number][0];
 
 export function FillCard(props: CardProps & { radiographTaken: boolean; needsRadiograph: boolean }) {
   const { canal, rec, radiographTaken, needsRadiograph } = props;
   const setFinished = useChairside((s) => s.setFinished);
-  const [length, setLength] = useState<string | undefined>();
+  const [length, setLength] = useState<FillLength | undefined>();
   const [voids, setVoids] = useState<boolean | undefined>();
-  const assess = (l: string | undefined, v: boolean | undefined) => {
+  const assess = (l: FillLength | undefined, v: boolean | undefined) => {
     setLength(l);
     setVoids(v);
     if (l !== undefined && v !== undefined) {

@@ -80,10 +80,11 @@ const SOLUTIONS = [
   ['saline', 'Saline'],
   ['chlorhexidine', 'CHX'],
 ] as const;
+type Solution = (typeof SOLUTIONS)[number][0];
 
 export function RinseCard({ rec }: CardProps) {
-  const [picked, setPicked] = useState<string[]>(['naocl', 'edta']);
-  const toggle = (s: string) => setPicked(picked.includes(s) ? picked.filter((x) => x !== s) : [...picked, s]);
+  const [picked, setPicked] = useState<Solution[]>(['naocl', 'edta']);
+  const toggle = (s: Solution) => setPicked(picked.includes(s) ? picked.filter((x) => x !== s) : [...picked, s]);
   return (
     <StepCard title="Final rinse: which solutions?" hint="Sodium hypochlorite, then EDTA for the smear layer.">
       <ChipGroup label="Solutions">
@@ -196,8 +197,11 @@ export const SEALERS = [
   ['other', 'Other'],
 ] as const;
 
+type Sealer = (typeof SEALERS)[number][0];
+const isSealer = (s: string | undefined): s is Sealer => SEALERS.some(([k]) => k === s);
+
 export function SealCard({ canal, rec }: CardProps) {
-  const [sealer, setSealer] = useState(canal.sealer ?? 'epoxy-resin');
+  const [sealer, setSealer] = useState<Sealer>(isSealer(canal.sealer) ? canal.sealer : 'epoxy-resin');
   return (
     <StepCard title="Coat the master cone with sealer and seat it" hint="Tap Seated once it is at length.">
       <ChipGroup label="Sealer">

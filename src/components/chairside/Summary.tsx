@@ -1,3 +1,4 @@
+import type { EventData, EventType } from '../../lib/contract';
 import { useMemo, useState } from 'react';
 import type { LogEvent } from '../../lib/rules/core';
 import { field, liveEvents, type CanalInfo, type CaseInfo } from '../../lib/client/events';
@@ -25,7 +26,7 @@ export function Summary(props: { info: CaseInfo; canals: CanalInfo[]; events: Lo
   const postOp = live.some((e) => e.type === 'radiograph.taken' && field(e, 'purpose') === 'post-op');
   const submitted = live.some((e) => e.type === 'case.submitted');
   const tooth = info.setting !== 'block';
-  const rec = (type: LogEvent['type'], data: object, label: string) => record(type, data, { label });
+  const rec = <T extends EventType>(type: T, data: EventData<T>, label: string) => record(type, data, { label });
 
   return (
     <div className="flex flex-col gap-4">

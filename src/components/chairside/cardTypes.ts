@@ -1,4 +1,5 @@
-import type { CanalState, LogEvent } from '../../lib/rules/core';
+import type { EventData, EventType } from '../../lib/contract';
+import type { CanalState } from '../../lib/rules/core';
 import type { CanalInfo, Setting } from '../../lib/client/events';
 
 /** What every step card gets: the canal, its state, and a way to record an answer. */
@@ -7,7 +8,7 @@ export interface CardProps {
   setting: Setting;
   state: CanalState | null;
   /** Record one event for this canal; `value` is shown big after the tap. */
-  rec: (type: LogEvent['type'], data: object, label: string, value?: string) => Promise<void>;
+  rec: <T extends EventType>(type: T, data: EventData<T>, label: string, value?: string) => Promise<void>;
 }
 
 /** Sizes offered around a given ISO size (two below, two above), for cone chips. */

@@ -1,16 +1,14 @@
-import type { CanalResult, LogEvent } from '../rules/core';
-import type { SyncResult } from './outbox';
+import type { CaseDetail, CaseSummary, MeAnswer, Role, SyncAnswer } from '../contract';
+import type { LogEvent } from '../rules/core';
+
+export type { CaseSummary, MeAnswer, SyncAnswer };
 
 /** The signed-in user as the tablet keeps them. */
 export interface Me {
   id: number;
   email?: string;
   name: string;
-  role: 'student' | 'attending' | 'director';
-}
-/** What `/api/me` answers: the user, and whether the installation is in demo mode. */
-export interface MeAnswer extends Me {
-  demo: boolean;
+  role: Role;
 }
 
 /** What came back: a value, "not signed in", or no answer at all (offline, server down). */
@@ -46,11 +44,6 @@ export function fetchMe(): Promise<Answer<MeAnswer>> {
   return call<MeAnswer>('/api/me');
 }
 
-export interface SyncAnswer {
-  results: SyncResult[];
-  canals: CanalResult[];
-}
-
 /** POSTs a batch as JSON (the server requires it, and checks Origin too); `userId` (the outbox's owner) makes the server refuse it under anyone else's session. */
 export function postSync(deviceId: string, events: LogEvent[], userId?: number): Promise<Answer<SyncAnswer>> {
   return call<SyncAnswer>('/api/sync', {
@@ -60,22 +53,10 @@ export function postSync(deviceId: string, events: LogEvent[], userId?: number):
   });
 }
 
-export interface CaseSummary {
-  caseId: string;
-  setting: 'block' | 'extracted' | 'patient';
-  tooth?: number | null;
-  chartRef?: string | null;
-  openedAt: string;
-  submitted: boolean;
-  canals: { canalId: string; name: string; status: string }[];
-}
-
 export function fetchCases(): Promise<Answer<{ cases: CaseSummary[] }>> {
   return call('/api/cases');
 }
 
-export function fetchCase(
-  caseId: string,
-): Promise<Answer<{ caseId: string; events: LogEvent[]; canals: CanalResult[] }>> {
+export function fetchCase(caseId: string): Promise<Answer<CaseDetail>> {
   return call(`/api/cases/${encodeURIComponent(caseId)}`);
 }

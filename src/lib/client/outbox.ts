@@ -32,12 +32,9 @@ export interface StoredEvent {
 export const RETRY_CAP_DAYS = 7;
 const RETRY_CAP_MS = RETRY_CAP_DAYS * 24 * 60 * 60 * 1000;
 
-export interface SyncResult {
-  id: string;
-  status: 'stored' | 'duplicate' | 'rejected';
-  error?: string;
-  retry?: boolean;
-}
+import type { SyncResult } from '../contract';
+
+export type { SyncResult };
 
 const events = () => useStore('events', true);
 const eventsRelaxed = () => useStore('events');
@@ -79,14 +76,17 @@ export async function countQueued(userId: number): Promise<number> {
 export function applyResults(userId: number, results: SyncResult[], now: Date = new Date()): Promise<void> {
   return events()('readwrite', (store) => {
     for (const r of results) {
-      const req = store.get([userId, r.id]) as IDBRequest<StoredEvent | undefined>;
+      // An answer without an id is for an event the tablet never sent in that shape.
+      if (r.id === null) continue;
+      const id = r.id;
+      const req = store.get([userId, id]) as IDBRequest<StoredEvent | undefined>;
       req.onsuccess = () => {
         const row = req.result;
         if (!row) return;
         if (r.status === 'stored' || r.status === 'duplicate') {
           row.state = 'synced';
           delete row.error;
-        } else if (r.retry) {
+        } else if (r.status === 'rejected' && r.retry) {
           row.retries = (row.retries ?? 0) + 1;
           // A row kept before the cap existed starts its days at this answer.
           row.firstRetryAt ??= now.toISOString();
@@ -95,9 +95,9 @@ export function applyResults(userId: number, results: SyncResult[], now: Date = 
           row.error = capped ? retryCapMessage(r.error) : r.error;
         } else {
           row.state = 'rejected';
-          row.error = r.error ?? 'Rejected by the server';
+          row.error = r.status === 'rejected' ? r.error : 'Rejected by the server';
         }
-        store.put(row, [userId, r.id]);
+        store.put(row, [userId, id]);
       };
     }
     return promisifyRequest(store.transaction);

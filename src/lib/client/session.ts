@@ -11,12 +11,15 @@ export interface Identity {
   signedOut: boolean;
   /** The installation is in demo mode: as /api/me last said, so it shows offline too. */
   demo: boolean;
+  /** The contract version the server last reported (kept offline too); 1 before it reported one. */
+  serverContract: number;
 }
 
 const LAST_USER = 'lastUser';
 // Kept apart from the user and through sign-outs: it describes the server, not a person, and
 // the tablet learns it only from a signed-in answer of /api/me.
 const DEMO_MODE = 'demoMode';
+const SERVER_CONTRACT = 'serverContract';
 
 /** This browser's own device id, made once. */
 export async function deviceId(): Promise<string> {
@@ -41,18 +44,22 @@ export async function resolveIdentity(): Promise<Identity> {
     if (last && last.id !== id) await clearUserIfSynced(last.id);
     await setMeta(LAST_USER, { id, name, role } satisfies Me);
     await setMeta(DEMO_MODE, demo);
-    return { user: { id, name, role }, source: 'server', signedOut: false, demo };
+    // A server from before the contract had a version reports none: it knows version 1.
+    const serverContract = typeof me.value.contractVersion === 'number' ? me.value.contractVersion : 1;
+    await setMeta(SERVER_CONTRACT, serverContract);
+    return { user: { id, name, role }, source: 'server', signedOut: false, demo, serverContract };
   }
   const demo = (await getMeta<boolean>(DEMO_MODE)) === true;
+  const serverContract = (await getMeta<number>(SERVER_CONTRACT)) ?? 1;
   if (me.kind === 'status' && me.status === 401) {
     if (last) await clearUserIfSynced(last.id);
     // Offline later, nobody should record under a user who has signed out.
     await delMeta(LAST_USER);
-    return { user: null, source: null, signedOut: true, demo };
+    return { user: null, source: null, signedOut: true, demo, serverContract };
   }
   return last
-    ? { user: last, source: 'tablet', signedOut: false, demo }
-    : { user: null, source: null, signedOut: false, demo };
+    ? { user: last, source: 'tablet', signedOut: false, demo, serverContract }
+    : { user: null, source: null, signedOut: false, demo, serverContract };
 }
 
 /** After a sign-out anywhere in this browser: nobody works offline as that user any more. */

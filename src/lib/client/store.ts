@@ -1,4 +1,5 @@
 import { create } from 'zustand';
+import { serverKnows, type EventData, type EventType } from '../contract';
 import { parseEvent, type LogEvent } from '../rules/core';
 import { fetchCase } from './api';
 import { newId } from './ids';
@@ -65,7 +66,8 @@ export interface ChairsideState {
 
   init(): Promise<void>;
   reload(): Promise<void>;
-  record(type: LogEvent['type'], data: object, opts: RecordOptions): Promise<LogEvent | null>;
+  /** Records one event: the data is typed per event type (docs/sync-contract.md). */
+  record<T extends EventType>(type: T, data: EventData<T>, opts: RecordOptions): Promise<LogEvent | null>;
   undoLast(): Promise<void>;
   clearUndo(): void;
   openCase(caseId: string | null, canalId?: string | null): void;
@@ -101,7 +103,7 @@ export const useChairside = create<ChairsideState>((set, get) => {
 
   return {
     phase: 'loading',
-    identity: { user: null, source: null, signedOut: false, demo: false },
+    identity: { user: null, source: null, signedOut: false, demo: false, serverContract: 1 },
     deviceId: '',
     rows: [],
     server: {},
@@ -152,6 +154,11 @@ export const useChairside = create<ChairsideState>((set, get) => {
       const id = uid();
       const caseId = opts.caseId ?? get().caseId;
       if (id === null || !caseId) return null;
+      // A newer app on an older server: record nothing the server would not understand.
+      if (!serverKnows(type, get().identity.serverContract)) {
+        set({ error: 'Not saved: the server does not know this step yet. Ask your clinic to update Coneline.' });
+        return null;
+      }
       const raw = {
         id: newId(),
         caseId,

@@ -81,7 +81,7 @@ export async function syncOnce(userId: number, deviceId: string, deps: SyncDeps 
     total.sent += batch.length;
     for (const r of results) {
       if (r.status === 'stored' || r.status === 'duplicate') total.stored++;
-      else if (r.retry) total.retry++;
+      else if (r.status === 'rejected' && r.retry) total.retry++;
       else total.rejected++;
     }
   }

@@ -2,7 +2,7 @@
 // calculators. The browser imports this file (the chairside island validates each tap with
 // parseEvent), so nothing reachable from here may import zod: zod 3 is about 14 KB gzipped of
 // the island's budget. tests/lib/rules/reference-doc.test.ts bundles it to make sure.
-// index.ts adds the zod schema and formatZodError for the server and the tests.
+// index.ts adds formatZodError (for form and API bodies) for the server and the tests.
 export {
   EVENT_TYPES,
   CASE_LEVEL_ONLY,

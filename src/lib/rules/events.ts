@@ -1,7 +1,6 @@
 // The event envelope and the data of every event type in docs/sync-contract.md: the one set of
 // field definitions. read.ts reads an event with them (for parseEvent, in the browser and on
-// the server) and schema.ts wraps that reading in the zod schema. No zod here, so the
-// chairside island does not load it (see core.ts).
+// the server). No zod here, so the chairside island does not load it (see core.ts).
 import * as f from './fields';
 import type { Flatten, RecordOf, Shape } from './record';
 

@@ -5,9 +5,8 @@ import { readEvent } from './read';
 /**
  * Validates and normalises one raw event. Never throws: the error is one plain sentence
  * naming the field and what is allowed. `now` (default: this device's clock) is the clock
- * `at` may not run more than 24 h ahead of. The sentence is the first problem's message,
- * which is what formatZodError gives for the same event checked with eventSchema (every
- * message is ours, never one of zod's generic ones).
+ * `at` may not run more than 24 h ahead of. The sentence is the first problem's message
+ * (every message is ours).
  */
 export function parseEvent(
   raw: unknown,

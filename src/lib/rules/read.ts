@@ -1,6 +1,5 @@
 // Reading one raw event into a LogEvent, or the problems that stop it: plain code, for
 // parseEvent (the chairside island checks every tap with it, the server every synced event).
-// schema.ts builds the zod eventSchema on readTyped, so both report the same problems.
 import { CASE_LEVEL_ONLY, CASE_OR_CANAL, DATA, ENVELOPE, EVENT_TYPES, type EventType, type LogEvent } from './events';
 import { parsedType, readRecord, type Issue } from './record';
 

@@ -1,5 +1,5 @@
 // Reading an object of fields (an event's envelope or its data) in one pass, and the problems
-// found on the way. Plain code: the zod schema (schema.ts) hands these problems to zod as issues.
+// found on the way. Plain code, no zod: it runs on every tap and every synced event.
 import { Invalid, readField, type Field } from './fields';
 
 /** zod's names for what a value is (z.getParsedType), as an issue reports them. */
@@ -25,10 +25,7 @@ export type ParsedType =
   | 'map'
   | 'set';
 
-/**
- * One problem with an event, shaped as the zod issue eventSchema reports for it, so that
- * parseEvent and eventSchema give the same sentence. The message is always ours.
- */
+/** One problem with an event: where it is, and a sentence of ours saying what is wrong. */
 export type Issue =
   | { code: 'custom'; path: string[]; message: string }
   | { code: 'invalid_type'; expected: 'object'; received: ParsedType; path: string[]; message: string }

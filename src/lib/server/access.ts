@@ -1,21 +1,13 @@
 /** Who may read which case: the student who owns it, their assigned attendings, directors. */
 import type { Knex } from 'knex';
 
-export interface CaseRow {
-  id: string;
-  student_id: number;
-  setting: 'block' | 'extracted' | 'patient';
-  tooth: number | null;
-  chart_ref: string | null;
-  opened_at: string;
-  submitted_at: string | null;
-  review_status: 'open' | 'submitted' | 'approved' | 'returned';
-  signed_off_at: string | null;
-}
+import type { CaseRow } from './tables';
+
+export type { CaseRow };
 
 /** The case if `user` may read it, else undefined (callers answer 404: no hint it exists). */
 export async function readableCase(k: Knex, user: SessionUser, caseId: string): Promise<CaseRow | undefined> {
-  const row = await k<CaseRow>('cases').where({ id: caseId }).first();
+  const row = await k('cases').where({ id: caseId }).first();
   if (!row) return undefined;
   if (user.role === 'director') return row;
   if (user.role === 'student') return row.student_id === user.id ? row : undefined;
@@ -25,7 +17,7 @@ export async function readableCase(k: Knex, user: SessionUser, caseId: string): 
 
 /** A query of the cases `user` may read, for lists. */
 export function readableCases(k: Knex, user: SessionUser): Knex.QueryBuilder<CaseRow, CaseRow[]> {
-  const q = k<CaseRow, CaseRow[]>('cases');
+  const q = k('cases');
   if (user.role === 'student') return q.where('cases.student_id', user.id);
   if (user.role === 'attending') {
     return q.whereIn('cases.student_id', k('assignments').select('student_id').where('attending_id', user.id));

@@ -1,25 +1,11 @@
 /** Case lists and case detail for the API and the pages. */
 import type { Knex } from 'knex';
+import type { CaseSummary } from '../contract';
 import type { CanalResult, LogEvent } from '../rules/index';
 import { readableCase, readableCases, type CaseRow } from './access';
 import { caseEvents, REMOVED, storedCanalsOfCase } from './canal-store';
 
-export interface CaseSummary {
-  caseId: string;
-  studentId: number;
-  studentName: string;
-  setting: CaseRow['setting'];
-  tooth: number | null;
-  chartRef: string | null;
-  openedAt: string;
-  submittedAt: string | null;
-  submitted: boolean;
-  reviewStatus: CaseRow['review_status'];
-  stops: number;
-  cautions: number;
-  notes: number;
-  canals: { canalId: string; name: string; status: string }[];
-}
+export type { CaseSummary } from '../contract';
 
 /** The cases `user` may read, newest first, with their canals and finding counts. */
 export async function listCases(
@@ -33,24 +19,16 @@ export async function listCases(
     .orderBy('cases.opened_at', 'desc');
   if (filter.reviewStatus) q.whereIn('cases.review_status', filter.reviewStatus);
   if (filter.studentId) q.where('cases.student_id', filter.studentId);
-  const rows = (await q) as (CaseRow & { student_name: string })[];
+  const rows: (CaseRow & { student_name: string })[] = await q;
   const canalRows = rows.length
-    ? ((await k('canals')
+    ? await k('canals')
         .select('id', 'case_id', 'name', 'status', 'stops', 'cautions', 'notes')
         .whereIn(
           'case_id',
           rows.map((r) => r.id),
         )
         .whereNot('status', REMOVED)
-        .orderBy('id')) as {
-        id: string;
-        case_id: string;
-        name: string;
-        status: string;
-        stops: number;
-        cautions: number;
-        notes: number;
-      }[])
+        .orderBy('id')
     : [];
   return rows.map((r) => {
     const canals = canalRows.filter((c) => c.case_id === r.id);

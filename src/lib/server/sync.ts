@@ -10,14 +10,9 @@ import { tolerances } from './settings';
 import { keep, limitBreach, priorFate, refusal, type Known, type KnownCase, type KnownEvent } from './sync-admit';
 import { loadTallies } from './sync-limits';
 
-export type ItemResult =
-  | { id: string | null; status: 'stored' | 'duplicate' }
-  | { id: string | null; status: 'rejected'; error: string; retry?: true };
+import { CONTRACT_VERSION, type SyncAnswer, type SyncResult } from '../contract';
 
-export interface SyncAnswer {
-  results: ItemResult[];
-  canals: CanalResult[];
-}
+export type ItemResult = SyncResult;
 
 interface Parsed {
   index: number;
@@ -238,6 +233,7 @@ export async function ingestBatch(
       );
     }
     return {
+      contractVersion: CONTRACT_VERSION,
       results: results.map((r, i) => r ?? { id: idOf(rawEvents[i]), status: 'rejected', error: 'not processed' }),
       canals,
     };

@@ -4,22 +4,14 @@ import type { Knex } from 'knex';
 import { z } from 'zod';
 import { audit } from './audit';
 import { passwordProblem } from './password-policy';
+import { ROLES, type Role } from '../contract';
+import type { UserRow } from './tables';
 
 export { MAX_PASSWORD_LENGTH, MIN_PASSWORD_LENGTH } from './password-policy';
 
-export const ROLES = ['student', 'attending', 'director'] as const;
-export type UserRole = (typeof ROLES)[number];
-
-export interface UserRow {
-  id: number;
-  email: string;
-  name: string;
-  role: UserRole;
-  active: number | boolean;
-  password_hash: string | null;
-  session_version: number;
-  cohort_id: number | null;
-}
+export { ROLES };
+export type { UserRow };
+export type UserRole = Role;
 
 export const newUserSchema = z.object({
   email: z.string().trim().toLowerCase().email('email must be an e-mail address'),
@@ -38,11 +30,11 @@ export function hashPassword(password: string): Promise<string> {
 }
 
 export async function findUserByEmail(k: Knex, email: string): Promise<UserRow | undefined> {
-  return k<UserRow>('users').where({ email: email.trim().toLowerCase() }).first();
+  return k('users').where({ email: email.trim().toLowerCase() }).first();
 }
 
 export async function findUserById(k: Knex, id: number): Promise<UserRow | undefined> {
-  return k<UserRow>('users').where({ id }).first();
+  return k('users').where({ id }).first();
 }
 
 // A hash to verify against when the e-mail is unknown, so both failures take as long.
@@ -66,7 +58,7 @@ export async function createUser(k: Knex, input: NewUser, actorId: number | null
   const [row] = await k('users')
     .insert({ email: u.email, name: u.name, role: u.role, password_hash, cohort_id: u.cohortId ?? null })
     .returning('id');
-  const id = typeof row === 'object' ? (row as { id: number }).id : (row as number);
+  const id = row!.id;
   await audit(k, actorId, 'user.created', 'user', String(id), { role: u.role });
   const created = await findUserById(k, id);
   if (!created) throw new Error('the account was not stored');

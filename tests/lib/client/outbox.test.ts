@@ -57,7 +57,7 @@ describe('applyResults', () => {
       { id: s.id, status: 'stored' },
       { id: d.id, status: 'duplicate' },
       { id: r.id, status: 'rejected', error: 'depthMm must be a multiple of 0.5 mm' },
-      { id: t.id, status: 'rejected', error: 'unknown canal', retry: true },
+      { id: t.id, status: 'rejected', error: 'unknown canal', retry: true as const },
     ]);
     expect((await listQueued(7)).map((x) => x.event.id)).toEqual([t.id]);
     const rows = await listEvents(7);
@@ -118,7 +118,7 @@ describe('applyResults, the retry cap', () => {
       id,
       status: 'rejected' as const,
       error: 'the case of this event is not on the server yet; it will be sent again',
-      retry: true,
+      retry: true as const,
     },
   ];
 

@@ -21,7 +21,7 @@ beforeEach(async () => {
   globalThis.indexedDB = new IDBFactory();
   vi.stubGlobal('navigator', { onLine: false });
   useChairside.setState({
-    identity: { user: { id: USER, name: 'Ana', role: 'student' }, source: 'tablet', signedOut: false, demo: false },
+    identity: { user: { id: USER, name: 'Ana', role: 'student' }, source: 'tablet', signedOut: false, demo: false, serverContract: 1 },
     rows: [],
     caseId: null,
     error: null,

@@ -67,6 +67,7 @@ describe('syncOnce', () => {
       post: async () => ({
         kind: 'ok',
         value: {
+          contractVersion: 1,
           results: [{ id: bad.id, status: 'rejected', error: 'depthMm must be a multiple of 0.5 mm' }],
           canals: [],
         },
@@ -79,7 +80,7 @@ describe('syncOnce', () => {
       whoIsSignedIn: me(1),
       post: async (_d, batch) => {
         sent.push(...batch.map((e) => e.id));
-        return { kind: 'ok', value: { results: [], canals: [] } };
+        return { kind: 'ok', value: { contractVersion: 1, results: [], canals: [] } };
       },
     });
     expect(sent).toEqual([]);
@@ -108,6 +109,7 @@ describe('syncOnce', () => {
         return {
           kind: 'ok',
           value: {
+            contractVersion: 1,
             results: [
               { id: batch[0]!.id, status: 'stored' },
               { id: batch[1]!.id, status: 'duplicate' },
@@ -135,7 +137,7 @@ describe('syncOnce', () => {
         if (batch.length > 2) return { kind: 'status', status: 413 };
         return {
           kind: 'ok',
-          value: { results: batch.map((e) => ({ id: e.id, status: 'stored' as const })), canals: [] },
+          value: { contractVersion: 1, results: batch.map((e) => ({ id: e.id, status: 'stored' as const })), canals: [] },
         };
       },
     });
@@ -158,6 +160,7 @@ describe('syncOnce, the retry cap', () => {
         return {
           kind: 'ok',
           value: {
+            contractVersion: 1,
             results: batch.map((x) => ({
               id: x.id,
               status: 'rejected' as const,

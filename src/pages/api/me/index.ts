@@ -1,4 +1,5 @@
 import type { APIRoute } from 'astro';
+import { CONTRACT_VERSION, type MeAnswer } from '../../../lib/contract';
 import { demoMode } from '../../../lib/server/demo-mode';
 import { json, jsonError } from '../../../lib/server/http';
 
@@ -6,5 +7,13 @@ export const GET: APIRoute = async ({ locals }) => {
   const user = locals.user;
   if (!user) return jsonError(401, 'Sign in first.');
   // `demo`: the chairside island is a static page and learns from here whether to show the banner.
-  return json({ id: user.id, email: user.email, name: user.name, role: user.role, demo: await demoMode() });
+  const me: MeAnswer = {
+    id: user.id,
+    email: user.email,
+    name: user.name,
+    role: user.role,
+    demo: await demoMode(),
+    contractVersion: CONTRACT_VERSION,
+  };
+  return json(me);
 };

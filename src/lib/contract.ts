@@ -1,0 +1,106 @@
+/**
+ * The contract: everything that crosses the wire or a layer, declared once and imported by
+ * the island, the endpoints, the services and the tests. Types and constants only, no zod and
+ * no I/O, so the chairside island may import it (zod bodies for forms live beside the routes
+ * that read them). docs/sync-contract.md is its written form.
+ */
+import type { CanalResult, EventOf, EventType, LogEvent } from './rules/core';
+import { EVENT_TYPES } from './rules/core';
+
+export type { CanalResult, EventOf, EventType, LogEvent };
+export { EVENT_TYPES };
+export { LIMITS } from './rules/limits';
+export type { Tolerances } from './rules/tolerances';
+
+/**
+ * The contract's version. It only grows: the server keeps accepting every event shape it
+ * ever accepted (tablets run an older precached app until they update), and a tablet records
+ * an event type only when the server it talks to knows it (EVENT_TYPE_SINCE).
+ */
+export const CONTRACT_VERSION = 1;
+
+/** The contract version in which each event type appeared. */
+export const EVENT_TYPE_SINCE: Readonly<Record<EventType, number>> = Object.fromEntries(
+  EVENT_TYPES.map((t) => [t, 1]),
+) as Record<EventType, number>;
+
+/** True when a server reporting `serverVersion` knows events of `type`. */
+export function serverKnows(type: EventType, serverVersion: number): boolean {
+  return serverVersion >= EVENT_TYPE_SINCE[type];
+}
+
+export const ROLES = ['student', 'attending', 'director'] as const;
+export type Role = (typeof ROLES)[number];
+
+/** The data an event of `type` carries, as the tablet records it (already normalised). */
+export type EventData<T extends EventType> = EventOf<T>['data'];
+
+// --- POST /api/sync -------------------------------------------------------------------
+
+/** The body of POST /api/sync. `userId` names the account whose outbox the batch comes from. */
+export interface SyncBatch {
+  deviceId: string;
+  userId?: number;
+  events: unknown[];
+}
+
+/** Each event's fate, in the batch's order. */
+export type SyncResult =
+  | { id: string | null; status: 'stored' | 'duplicate' }
+  | { id: string | null; status: 'rejected'; error: string; retry?: true };
+
+/** The answer of POST /api/sync. */
+export interface SyncAnswer {
+  /** The server's CONTRACT_VERSION. */
+  contractVersion: number;
+  results: SyncResult[];
+  /** The full, recomputed state and open findings of every canal the batch touched. */
+  canals: CanalResult[];
+}
+
+// --- reading back ---------------------------------------------------------------------
+
+export type CaseSetting = 'block' | 'extracted' | 'patient';
+export type ReviewStatus = 'open' | 'submitted' | 'approved' | 'returned';
+
+/** One case in a list (GET /api/cases, the home pages): the same shape everywhere. */
+export interface CaseSummary {
+  caseId: string;
+  studentId: number;
+  studentName: string;
+  setting: CaseSetting;
+  tooth: number | null;
+  chartRef: string | null;
+  openedAt: string;
+  submittedAt: string | null;
+  submitted: boolean;
+  reviewStatus: ReviewStatus;
+  stops: number;
+  cautions: number;
+  notes: number;
+  canals: { canalId: string; name: string; status: string }[];
+}
+
+/** GET /api/cases/{caseId}: every event of the case and its canals' state. */
+export interface CaseDetail {
+  caseId: string;
+  events: LogEvent[];
+  canals: CanalResult[];
+}
+
+/** GET /api/me: the signed-in user, the installation's demo mode, the contract version. */
+export interface MeAnswer {
+  id: number;
+  email: string;
+  name: string;
+  role: Role;
+  demo: boolean;
+  contractVersion: number;
+}
+
+/** Every error answer of the API. */
+export interface ErrorAnswer {
+  error: string;
+  code?: string;
+  field?: string;
+}

@@ -1,0 +1,207 @@
+/**
+ * The database's tables as TypeScript sees them: one interface per table, registered with
+ * Knex so that `k('users')` is typed and queries need no casts. A migration that adds or
+ * changes a column changes its interface here in the same commit.
+ */
+import type { Role } from '../contract';
+
+/** SQLite answers booleans as 0/1; PostgreSQL as true/false. */
+type Bool = boolean | number;
+
+export interface CohortRow {
+  id: number;
+  name: string;
+  graduation_year: number | null;
+  demo: Bool;
+  created_at: string;
+}
+
+export interface UserRow {
+  id: number;
+  email: string;
+  name: string;
+  role: Role;
+  active: Bool;
+  password_hash: string | null;
+  /** No longer read: sessions live in `sessions` (kept so old databases need no rebuild). */
+  session_version: number;
+  cohort_id: number | null;
+  demo: Bool;
+  created_at: string;
+}
+
+export interface AssignmentRow {
+  attending_id: number;
+  student_id: number;
+  created_at: string;
+}
+
+export type ReviewStatus = 'open' | 'submitted' | 'approved' | 'returned';
+
+export interface CaseRow {
+  id: string;
+  student_id: number;
+  setting: 'block' | 'extracted' | 'patient';
+  tooth: number | null;
+  chart_ref: string | null;
+  opened_at: string;
+  submitted_at: string | null;
+  review_status: ReviewStatus;
+  signed_off_at: string | null;
+  updated_at: string;
+}
+
+export interface CanalRow {
+  id: string;
+  case_id: string;
+  name: string;
+  status: string;
+  state_json: string;
+  stops: number;
+  cautions: number;
+  notes: number;
+  updated_at: string;
+}
+
+export interface EventRow {
+  id: string;
+  case_id: string;
+  canal_id: string | null;
+  type: string;
+  at: string;
+  data_json: string;
+  canonical: string;
+  user_id: number;
+  device_id: string;
+  received_at: string;
+}
+
+export interface FindingRow {
+  id: number;
+  canal_id: string;
+  case_id: string;
+  code: string;
+  severity: 'stop' | 'caution' | 'note';
+  event_id: string | null;
+  message: string;
+}
+
+export interface RadiographRow {
+  id: string;
+  case_id: string;
+  canal_id: string | null;
+  purpose: 'working-length' | 'maf' | 'cone-fit' | 'fill-check' | 'post-op';
+  object_key: string;
+  content_type: string;
+  size_bytes: number;
+  uploaded_by: number;
+  uploaded_at: string;
+}
+
+export interface SignoffRow {
+  id: number;
+  case_id: string;
+  canal_id: string | null;
+  checkpoint: 'cone-fit' | 'fill-check' | 'final';
+  decision: 'approved' | 'returned' | 'reopened';
+  rubric_json: string | null;
+  comment: string | null;
+  attending_id: number;
+  created_at: string;
+}
+
+export interface CommentRow {
+  id: number;
+  case_id: string;
+  canal_id: string | null;
+  event_id: string | null;
+  author_id: number;
+  text: string;
+  created_at: string;
+}
+
+export interface InvitationRow {
+  id: number;
+  email: string;
+  role: Role;
+  cohort_id: number | null;
+  token_hash: string;
+  invited_by: number;
+  expires_at: string;
+  accepted_at: string | null;
+  created_at: string;
+}
+
+export interface PasswordResetRow {
+  id: number;
+  user_id: number;
+  token_hash: string;
+  expires_at: string;
+  used_at: string | null;
+  created_at: string;
+}
+
+export interface SettingRow {
+  key: string;
+  value_json: string;
+  updated_by: number | null;
+  updated_at: string;
+}
+
+export interface AuditRow {
+  id: number;
+  at: string;
+  actor_id: number | null;
+  action: string;
+  subject_type: string | null;
+  subject_id: string | null;
+  detail_json: string | null;
+}
+
+export interface SessionRow {
+  id: string;
+  user_id: number;
+  created_at: string;
+  expires_at: string;
+  ended_at: string | null;
+  ended_by: string | null;
+}
+
+/** rate-limiter-flexible's own columns (points consumed; expiry in epoch milliseconds). */
+export interface SigninLimitRow {
+  key: string;
+  points: number;
+  expire: number | null;
+}
+
+export interface RequestIdRow {
+  id: string;
+  user_id: number;
+  route: string;
+  body_hash: string;
+  status: number;
+  answer_json: string;
+  at: string;
+}
+
+declare module 'knex/types/tables' {
+  interface Tables {
+    cohorts: CohortRow;
+    users: UserRow;
+    assignments: AssignmentRow;
+    cases: CaseRow;
+    canals: CanalRow;
+    events: EventRow;
+    findings: FindingRow;
+    radiographs: RadiographRow;
+    signoffs: SignoffRow;
+    comments: CommentRow;
+    invitations: InvitationRow;
+    password_resets: PasswordResetRow;
+    settings: SettingRow;
+    audit_log: AuditRow;
+    sessions: SessionRow;
+    signin_limits: SigninLimitRow;
+    request_ids: RequestIdRow;
+  }
+}
