@@ -55,14 +55,17 @@ export async function createUser(k: Knex, input: NewUser, actorId: number | null
   const u = newUserSchema.parse(input);
   if (await findUserByEmail(k, u.email)) throw new Error(`an account for ${u.email} already exists`);
   const password_hash = await hashPassword(u.password);
-  const [row] = await k('users')
-    .insert({ email: u.email, name: u.name, role: u.role, password_hash, cohort_id: u.cohortId ?? null })
-    .returning('id');
-  const id = row!.id;
-  await audit(k, actorId, 'user.created', 'user', String(id), { role: u.role });
-  const created = await findUserById(k, id);
-  if (!created) throw new Error('the account was not stored');
-  return created;
+  // The account and its audit line are written together, or neither is.
+  return k.transaction(async (trx) => {
+    const [row] = await trx('users')
+      .insert({ email: u.email, name: u.name, role: u.role, password_hash, cohort_id: u.cohortId ?? null })
+      .returning('id');
+    const id = row!.id;
+    await audit(trx, actorId, 'user.created', 'user', String(id), { role: u.role });
+    const created = await findUserById(trx, id);
+    if (!created) throw new Error('the account was not stored');
+    return created;
+  });
 }
 
 export function toSessionUser(u: UserRow): SessionUser {
