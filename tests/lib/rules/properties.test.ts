@@ -7,7 +7,9 @@ import {
   diameterAtMm,
   evaluateCanal,
   fdiToUniversal,
+  isConeSize,
   isoColour,
+  isValidFdi,
   normaliseSize,
   parseEvent,
   proportionalLength,
@@ -176,7 +178,7 @@ describe('no input makes the module throw', () => {
     );
   });
 
-  it('parseEvent answers near-valid events with errors, never exceptions', () => {
+  it('parseEvent answers near-valid events with a sentence, or an event it accepts again within range', () => {
     const field = fc.oneof(
       fc.anything(),
       fc.double(),
@@ -192,7 +194,7 @@ describe('no input makes the module throw', () => {
           c: field,
         }),
         (g) => {
-          parseEvent(
+          const r = parseEvent(
             {
               id: uuidFor(1),
               caseId: uuidFor(2),
@@ -212,6 +214,22 @@ describe('no input makes the module throw', () => {
             },
             NOW,
           );
+          if (!r.ok) {
+            // An error is one sentence a person can act on, naming what is wrong.
+            expect(r.error).toMatch(/^\S.*\S$/);
+            return;
+          }
+          // What it accepts it accepts again unchanged, and within the contract's ranges.
+          expect(parseEvent(r.event, NOW)).toEqual(r);
+          if (r.event.type === 'spreader.placed') {
+            expect(isConeSize(r.event.data.spreader)).toBe(true);
+            expect(r.event.data.depthMm).toBeGreaterThanOrEqual(0.5);
+            expect(r.event.data.depthMm).toBeLessThanOrEqual(40);
+            expect(r.event.data.depthMm % 0.5).toBe(0);
+          }
+          if (r.event.type === 'case.opened' && r.event.data.tooth !== undefined) {
+            expect(isValidFdi(r.event.data.tooth)).toBe(true);
+          }
         },
       ),
       RUNS,
@@ -235,25 +253,29 @@ describe('no input makes the module throw', () => {
     );
   });
 
-  it('the tables and calculators answer any number or string', () => {
+  it('the calculators never throw and the tables answer a value of their kind, or none, for any input', () => {
     fc.assert(
       fc.property(fc.double(), fc.double(), fc.double(), fc.string(), fc.anything(), (a, b, c, s, x) => {
         canalThirds(a, b, c);
         canalThirds(a, undefined, c);
-        normaliseSize(x);
-        isoColour(s);
         diameterAtMm(s, a, b);
-        universalToFdi(s);
-        universalToFdi(a);
-        averageLengthMm(a);
-        fdiToUniversal(a);
-        toothName(a);
-        usualCanals(a);
-        referencePointsFor(a);
         workingLengthByDiscrepancy(a, b);
         workingLengthFromApexLocator(a, b);
         proportionalLength(a, b, c);
         stepBackSchedule(s, a, 1.0, Math.floor(b));
+        // The lookups answer a value of their kind, or "none", for anything at all.
+        const size = normaliseSize(x);
+        expect(size === null || isConeSize(size)).toBe(true);
+        const colour = isoColour(s);
+        expect(colour === null || /^#[0-9a-f]{6}$/i.test(colour.hex)).toBe(true);
+        for (const u of [universalToFdi(s), universalToFdi(a)]) expect(u === null || isValidFdi(u)).toBe(true);
+        const avg = averageLengthMm(a);
+        expect(avg === null || (Number.isFinite(avg) && avg > 0)).toBe(true);
+        expect(typeof fdiToUniversal(a)).toBe('string');
+        expect(typeof toothName(a)).toBe('string');
+        const usual = usualCanals(a);
+        expect([...usual.canals, ...usual.optional].every((n) => typeof n === 'string' && n.length > 0)).toBe(true);
+        expect(referencePointsFor(a).every((p) => typeof p === 'string' && p.length > 0)).toBe(true);
       }),
       RUNS,
     );
