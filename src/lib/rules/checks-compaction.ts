@@ -50,10 +50,12 @@ export function compactionChecks(v: CanalView): Finding[] {
     const seatI = v.lastSeat.i;
     const first = spreaders.find((s) => s.i > seatI);
     if (first !== undefined && gt(v.cwlMm - first.e.data.depthMm, v.tol.firstSpreaderMarginMm)) {
+      // Never advise force: excess spreader load is the classic cause of vertical root fracture
+      // (common practice, no source).
       out.push(
         raise(
           'first-spreader-short',
-          `The first spreader placement stopped ${fmtMm(v.cwlMm - first.e.data.depthMm)} short of the CWL of ${cwl} (more than ${fmtMm(v.tol.firstSpreaderMarginMm)}): push the spreader deeper with firm pressure, or ask your attending.`,
+          `The first spreader placement stopped ${fmtMm(v.cwlMm - first.e.data.depthMm)} short of the CWL of ${cwl} (more than ${fmtMm(v.tol.firstSpreaderMarginMm)}): ask your attending whether to use a finer spreader or to shape the canal further. Extra pressure on a spreader can split the root.`,
           first.e.id,
         ),
       );
