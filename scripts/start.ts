@@ -10,7 +10,7 @@ import { parseArgs } from 'node:util';
 import { DEMO_PASSWORD } from '../db/demo/clinic.ts';
 import { buildIfNeeded, requireBuild } from './lib/build.ts';
 import { installFacts, prepareDb } from './lib/dbtasks.ts';
-import { tlsEnv } from './lib/tls.ts';
+import { lanAddresses, tlsEnv } from './lib/tls.ts';
 
 const root = resolve(import.meta.dirname, '..');
 const { values } = parseArgs({ options: { 'no-build': { type: 'boolean', default: false } }, strict: true });
@@ -40,6 +40,17 @@ const server = spawn(process.execPath, [resolve(root, 'scripts/server.mjs')], {
 const scheme = https ? 'https' : 'http';
 const password = activeDemoAccounts > 0 ? `  (demo password: ${DEMO_PASSWORD})` : '';
 console.log(`Coneline: ${scheme}://localhost:${port}${password}`);
+if (https) {
+  // What to type on the tablet: this machine's addresses on the local network.
+  const lan = lanAddresses();
+  if (lan.length > 0)
+    console.log(`On a tablet on this network open: ${lan.map((a) => `https://${a}:${port}/chairside`).join('  or  ')}`);
+  else console.log('No local network address was found: connect this machine to the network the tablet is on.');
+  console.log(
+    'The tablet must trust data/tls/cert.pem (install it as a trusted certificate) for the chairside to open offline;\n' +
+      'clicking through the browser warning gives the chairside online only (see the README, "On a tablet").',
+  );
+}
 const stop = () => server.kill('SIGTERM');
 process.on('SIGINT', stop);
 process.on('SIGTERM', stop);

@@ -5,6 +5,7 @@
 import { spawnSync } from 'node:child_process';
 import { existsSync, mkdirSync, readFileSync, rmSync } from 'node:fs';
 import { resolve } from 'node:path';
+import { build } from './lib/build.ts';
 
 const root = resolve(import.meta.dirname, '..');
 const CHROMIUM = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
@@ -42,7 +43,7 @@ if (only.length === 0) {
   run(node, [bin('eslint/bin/eslint.js'), '.']);
   run(node, [bin('astro/astro.js'), 'check']);
 }
-run(node, [bin('astro/astro.js'), 'build']);
+build(root);
 const report = resolve(root, 'test-results/vitest.json');
 const vitest = spawnSync(
   node,

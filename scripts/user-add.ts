@@ -5,9 +5,8 @@
 import { parseArgs } from 'node:util';
 import { ZodError } from 'zod';
 import { openDb } from './lib/dbtasks.ts';
-import { askHidden, readFirstLine } from './lib/read-password.ts';
+import { passwordFrom } from './lib/read-password.ts';
 import { dataPaths } from '../src/lib/server/files.ts';
-import { passwordProblem } from '../src/lib/server/password-policy.ts';
 import { createUser, findUserByEmail, type NewUser } from '../src/lib/server/users.ts';
 
 const USAGE = `usage: npm run user:add -- --email E --name N --role student|attending|director [--attending E] [--cohort NAME]
@@ -44,28 +43,11 @@ for (const key of ['email', 'name', 'role'] as const) {
   if (!values[key]) fail(`--${key} is required\n${USAGE}`);
 }
 
-/** The password from wherever it was given; refused early so nobody types it twice in vain. */
-async function password(): Promise<string> {
-  if (values.password !== undefined && values['password-stdin']) fail('use --password-stdin or --password, not both');
-  let given = values.password;
-  if (values['password-stdin']) {
-    given = await readFirstLine(process.stdin);
-    if (!given) fail('no password on standard input (one line is read)');
-  }
-  if (given !== undefined) {
-    const problem = passwordProblem(given);
-    return problem ? fail(problem) : given;
-  }
-  if (!process.stdin.isTTY)
-    fail('no password: run it in a terminal to be asked, or give one line on standard input with --password-stdin');
-  const first = await askHidden('Password: ');
-  const problem = passwordProblem(first);
-  if (problem) fail(problem);
-  if ((await askHidden('Same password again: ')) !== first) fail('the two passwords differ; nothing was created');
-  return first;
-}
-
-const secret = await password();
+const secret = await passwordFrom(
+  { password: values.password, stdin: values['password-stdin'] },
+  fail,
+  'nothing was created',
+);
 const k = openDb(dataPaths().dbFile);
 try {
   await k.migrate.latest();

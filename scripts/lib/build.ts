@@ -40,6 +40,14 @@ export function buildIsStale(root: string): boolean {
 export function buildIfNeeded(root: string): void {
   if (!buildIsStale(root)) return;
   console.log('Building Coneline…');
+  build(root);
+}
+
+/**
+ * Builds now and stamps the build with the addresses it lets in, so that the next
+ * `npm start` after `npm test` (which builds through here too) does not build again.
+ */
+export function build(root: string): void {
   // The secret stays out of the build: auth-astro reads import.meta.env.AUTH_SECRET, which
   // a build can freeze into dist/ (stack-notes.md); ours is read at run time instead.
   const env = { ...process.env };
@@ -50,6 +58,11 @@ export function buildIfNeeded(root: string): void {
     env,
   });
   if (r.status !== 0) process.exit(r.status ?? 1);
+  stampBuild(root);
+}
+
+/** Marks the build in dist/ as made for this machine's addresses and PUBLIC_HOST. */
+export function stampBuild(root: string): void {
   writeFileSync(resolve(root, 'dist/.coneline-build-hosts'), addressStamp());
 }
 

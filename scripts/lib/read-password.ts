@@ -2,6 +2,7 @@
  * Reading a password in a command-line tool without putting it in the process list or the
  * shell's history: asked for in a terminal with no echo, or one line from standard input.
  */
+import { passwordProblem } from '../../src/lib/server/password-policy.ts';
 import type { ReadStream } from 'node:tty';
 
 /** The first line of `input` (up to the first new line or the end), without its \r\n. */
@@ -46,4 +47,33 @@ export function askHidden(question: string, input: ReadStream = process.stdin as
     };
     input.on('data', onData);
   });
+}
+
+/**
+ * A new password from wherever the command was given it: --password (scripts only),
+ * --password-stdin (one line), or asked twice, not shown, in a terminal. Refused early, with
+ * the policy's own words, so nobody types it twice in vain.
+ */
+export async function passwordFrom(
+  given: { password?: string; stdin?: boolean },
+  fail: (message: string) => never,
+  nothingDone: string,
+): Promise<string> {
+  if (given.password !== undefined && given.stdin) fail('use --password-stdin or --password, not both');
+  let value = given.password;
+  if (given.stdin) {
+    value = await readFirstLine(process.stdin);
+    if (!value) fail('no password on standard input (one line is read)');
+  }
+  if (value !== undefined) {
+    const problem = passwordProblem(value);
+    return problem ? fail(problem) : value;
+  }
+  if (!process.stdin.isTTY)
+    fail('no password: run it in a terminal to be asked, or give one line on standard input with --password-stdin');
+  const first = await askHidden('Password: ');
+  const problem = passwordProblem(first);
+  if (problem) fail(problem);
+  if ((await askHidden('Same password again: ')) !== first) fail(`the two passwords differ; ${nothingDone}`);
+  return first;
 }

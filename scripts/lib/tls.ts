@@ -8,6 +8,14 @@ import { dirname, resolve } from 'node:path';
 import selfsigned from 'selfsigned';
 import { FILE_MODE, secureDataDir, securePrivateFile } from '../../src/lib/server/files.ts';
 
+/** This machine's IPv4 addresses other than loopback: what a tablet on the network can reach. */
+export function lanAddresses(): string[] {
+  return Object.values(networkInterfaces())
+    .flat()
+    .filter((n) => n && n.family === 'IPv4' && !n.internal)
+    .map((n) => n!.address);
+}
+
 export async function tlsEnv(root: string): Promise<Record<string, string>> {
   const dir = resolve(root, 'data/tls');
   const cert = resolve(dir, 'cert.pem');

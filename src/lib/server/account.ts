@@ -5,8 +5,8 @@ import { audit } from './audit';
 import { passwordProblem } from './password-policy';
 import type { Answer } from './request-ids';
 import { endAllSessions } from './sessions';
-import { recordSigninFailure, signinHold } from './signin-limits';
-import { checkPassword, findUserById, hashPassword } from './users';
+import { liftHolds, recordSigninFailure, signinHold } from './signin-limits';
+import { checkPassword, findUserByEmail, findUserById, hashPassword } from './users';
 
 export const passwordChangeSchema = z.object({
   id: z.string().trim().min(8, 'id must be a request id made by the page').max(64, 'id must be at most 64 characters'),
@@ -48,4 +48,31 @@ export async function changePassword(
     return n;
   });
   return { status: 200, body: { changed: true, otherSessionsEnded: ended } };
+}
+
+/**
+ * Sets a user's password on someone else's word (a director, from the command line today; the
+ * e-mailed reset later): every session of the account ends, its sign-in holds are lifted, and
+ * the audit log says who did it. A deactivated account is refused.
+ */
+export async function setPasswordFor(
+  k: Knex,
+  email: string,
+  newPassword: string,
+  actorId: number | null,
+): Promise<{ sessionsEnded: number; holdsLifted: number }> {
+  const user = await findUserByEmail(k, email);
+  if (!user) throw new Error(`there is no account for ${email.trim().toLowerCase()}`);
+  if (!user.active) throw new Error(`the account for ${user.email} is deactivated; re-activate it first`);
+  const problem = passwordProblem(newPassword);
+  if (problem) throw new Error(problem);
+  const passwordHash = await hashPassword(newPassword);
+  const sessionsEnded = await k.transaction(async (trx) => {
+    await trx('users').where({ id: user.id }).update({ password_hash: passwordHash });
+    const n = await endAllSessions(trx, user.id, 'password-reset');
+    await audit(trx, actorId, 'user.password-set', 'user', String(user.id), { sessionsEnded: n });
+    return n;
+  });
+  const holdsLifted = await liftHolds(k, user.email);
+  return { sessionsEnded, holdsLifted };
 }

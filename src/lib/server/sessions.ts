@@ -6,7 +6,6 @@
 import { randomBytes } from 'node:crypto';
 import type { Knex } from 'knex';
 import { audit } from './audit';
-import { db } from './db';
 import type { UserRow } from './users';
 
 /** How long a session lasts from sign-in (the token's own lifetime is the same). */
@@ -70,15 +69,5 @@ export async function setActive(k: Knex, userId: number, active: boolean, actorI
     if (changed === 0) throw new Error('no such account');
     await endAllSessions(trx, userId, active ? 'reactivated' : 'deactivated');
     await audit(trx, actorId, active ? 'user.reactivated' : 'user.deactivated', 'user', String(userId));
-  });
-}
-
-/** Signs out of this session, or of every session of the user, with its audit line. */
-export async function signOut(userId: number, sessionId: string, everywhere: boolean, k?: Knex): Promise<void> {
-  const knex = k ?? (await db());
-  await knex.transaction(async (trx) => {
-    if (everywhere) await endAllSessions(trx, userId, 'sign-out-everywhere');
-    else await endSession(trx, sessionId, 'sign-out');
-    await audit(trx, userId, everywhere ? 'user.signed-out-everywhere' : 'user.signed-out', 'user', String(userId));
   });
 }

@@ -32,6 +32,14 @@ function passOn(res: Response, extra: Record<string, string> = {}): Response {
   return new Response(res.body, { status: res.status, statusText: res.statusText, headers });
 }
 
+/** The e-mail typed, kept briefly for the sign-in form, so a wrong password does not empty it. */
+export const TYPED_EMAIL_COOKIE = 'coneline-signin-email';
+
+function rememberEmail(ctx: APIContext, email: string): void {
+  if (!email || email.length > MAX_EMAIL_LENGTH) return;
+  ctx.cookies.set(TYPED_EMAIL_COOKIE, email, { path: '/signin', httpOnly: true, sameSite: 'strict', maxAge: 600 });
+}
+
 function backToSignin(ctx: APIContext, params: Record<string, string>, callbackUrl: string | null): Response {
   const q = new URLSearchParams(params);
   if (callbackUrl && callbackUrl.startsWith('/') && !callbackUrl.startsWith('//')) q.set('callbackUrl', callbackUrl);
@@ -50,7 +58,10 @@ async function signIn(ctx: APIContext): Promise<Response> {
   const email = (form.get('email') ?? '').trim();
   const password = form.get('password') ?? '';
   const callbackUrl = form.get('callbackUrl');
-  if (!email || !password) return backToSignin(ctx, { code: 'missing' }, callbackUrl);
+  if (!email || !password) {
+    rememberEmail(ctx, email);
+    return backToSignin(ctx, { code: 'missing' }, callbackUrl);
+  }
   if (email.length > MAX_EMAIL_LENGTH || password.length > MAX_PASSWORD_LENGTH) {
     return backToSignin(ctx, { code: 'too-long' }, callbackUrl);
   }
@@ -58,13 +69,22 @@ async function signIn(ctx: APIContext): Promise<Response> {
   const k = await db();
   const address = ctx.clientAddress;
   const wait = await signinHold(k, email, address);
-  if (wait > 0) return backToSignin(ctx, { code: 'throttled', wait: String(wait) }, callbackUrl);
+  if (wait > 0) {
+    rememberEmail(ctx, email);
+    return backToSignin(ctx, { code: 'throttled', wait: String(wait) }, callbackUrl);
+  }
 
   const attempt = {} as { outcome?: 'signed-in' | 'wrong' };
   const forwarded = new Request(request.url, { method: 'POST', headers: request.headers, body: body.text });
   const res = await signinAttempt.run(attempt, () => Auth(forwarded, authConfig));
-  if (attempt.outcome === 'wrong') await recordSigninFailure(k, email, address);
-  if (attempt.outcome === 'signed-in') await recordSigninSuccess(k, email, address);
+  if (attempt.outcome === 'wrong') {
+    await recordSigninFailure(k, email, address);
+    rememberEmail(ctx, email);
+  }
+  if (attempt.outcome === 'signed-in') {
+    await recordSigninSuccess(k, email, address);
+    ctx.cookies.delete(TYPED_EMAIL_COOKIE, { path: '/signin' });
+  }
   return passOn(res);
 }
 
