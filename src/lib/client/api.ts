@@ -1,5 +1,6 @@
 import type { CanalResult, LogEvent } from '../rules/core';
 import type { SyncResult } from './outbox';
+import type { Clinic } from '../present/format';
 
 /** The signed-in user as the tablet keeps them. */
 export interface Me {
@@ -7,8 +8,10 @@ export interface Me {
   email?: string;
   name: string;
   role: 'student' | 'attending' | 'director';
+  /** The clinic's time zone and locale, kept with the user so the tablet shows times offline too. */
+  clinic?: Clinic;
 }
-/** What `/api/me` answers: the user, and whether the installation is in demo mode. */
+/** What `/api/me` answers: the user, whether the installation is in demo mode, and the clinic. */
 export interface MeAnswer extends Me {
   demo: boolean;
 }

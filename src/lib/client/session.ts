@@ -36,12 +36,13 @@ export async function resolveIdentity(): Promise<Identity> {
   const last = await getMeta<Me>(LAST_USER);
   const me = await fetchMe();
   if (me.kind === 'ok') {
-    const { id, name, role } = me.value;
+    const { id, name, role, clinic } = me.value;
     const demo = me.value.demo === true;
     if (last && last.id !== id) await clearUserIfSynced(last.id);
-    await setMeta(LAST_USER, { id, name, role } satisfies Me);
+    const user: Me = clinic ? { id, name, role, clinic } : { id, name, role };
+    await setMeta(LAST_USER, user);
     await setMeta(DEMO_MODE, demo);
-    return { user: { id, name, role }, source: 'server', signedOut: false, demo };
+    return { user, source: 'server', signedOut: false, demo };
   }
   const demo = (await getMeta<boolean>(DEMO_MODE)) === true;
   if (me.kind === 'status' && me.status === 401) {

@@ -1,10 +1,13 @@
 import type { APIRoute } from 'astro';
+import { config } from '../../../lib/server/config';
 import { demoMode } from '../../../lib/server/demo-mode';
 import { json, jsonError } from '../../../lib/server/http';
 
 export const GET: APIRoute = async ({ locals }) => {
   const user = locals.user;
   if (!user) return jsonError(401, 'Sign in first.');
-  // `demo`: the chairside island is a static page and learns from here whether to show the banner.
-  return json({ id: user.id, email: user.email, name: user.name, role: user.role, demo: await demoMode() });
+  // `demo` and `clinic`: the chairside island is a static page and learns from here whether to
+  // show the banner and in which zone and locale to show times.
+  const { clinic } = config();
+  return json({ id: user.id, email: user.email, name: user.name, role: user.role, demo: await demoMode(), clinic });
 };
