@@ -2,8 +2,8 @@
 // on the case page.
 import { mm } from './format';
 import {
-  eventTypeLabel,
   fillLabel,
+  plainWords,
   pointSizeLabel,
   purposeLabel,
   restorationLabel,
@@ -59,7 +59,16 @@ export function describeEvent(e: DescribedEvent): string {
       return 'Vertical compaction done';
     case 'access.restored':
       return `Access restored (${restorationLabel(s('kind'))})`;
+    case 'accessory.removed':
+      return 'Short cone removed';
+    case 'note.added':
+      return 'Note';
+    case 'event.voided':
+      return 'Withdrawn';
+    case 'case.submitted':
+      return 'Submitted for review';
     default:
-      return eventTypeLabel(e.type);
+      // A type from a newer server: its words, without the label table the tablet never needs.
+      return plainWords(e.type);
   }
 }
