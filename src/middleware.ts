@@ -1,5 +1,5 @@
 // Session into Astro.locals and a coarse gate by the matched route; every handler still
-// authorises the data it touches (conventions.md). Security headers are set on every
+// authorises the data it touches. Security headers are set on every
 // response by the server entry (scripts/server.mjs), static files included.
 import { defineMiddleware } from 'astro:middleware';
 import { jsonError } from './lib/server/http';

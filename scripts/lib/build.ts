@@ -49,7 +49,7 @@ export function buildIfNeeded(root: string): void {
  */
 export function build(root: string): void {
   // The secret stays out of the build: auth-astro reads import.meta.env.AUTH_SECRET, which
-  // a build can freeze into dist/ (stack-notes.md); ours is read at run time instead.
+  // a build can freeze into dist/; ours is read at run time instead.
   const env = { ...process.env };
   delete env.AUTH_SECRET;
   const r = spawnSync(process.execPath, [resolve(root, 'node_modules/astro/astro.js'), 'build'], {

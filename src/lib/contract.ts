@@ -88,13 +88,20 @@ export interface CaseDetail {
   canals: CanalResult[];
 }
 
-/** GET /api/me: the signed-in user, the installation's demo mode, the contract version. */
+/** The clinic's time zone and locale (CLINIC_TIME_ZONE, CLINIC_LOCALE), for showing dates and times. */
+export interface Clinic {
+  timeZone: string;
+  locale: string;
+}
+
+/** GET /api/me: the signed-in user, the installation's demo mode, the clinic, the contract version. */
 export interface MeAnswer {
   id: number;
   email: string;
   name: string;
   role: Role;
   demo: boolean;
+  clinic: Clinic;
   contractVersion: number;
 }
 

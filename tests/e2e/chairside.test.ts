@@ -73,7 +73,7 @@ async function setUpDistal36(page: Page): Promise<void> {
   await page.locator('[data-testid="step"][data-card="seat"]').waitFor();
 }
 
-/** A whole canal by taps, with the chairside-flow defaults; optionally one short cone redone. */
+/** A whole canal by taps, with the tablet's default answers; optionally one short cone redone. */
 async function recordCanal(d: Driver, opts: { shortCone: boolean; check?: () => Promise<void> }): Promise<void> {
   const check = opts.check ?? (async () => {});
   await d.answer('seat', 'Seats and holds');

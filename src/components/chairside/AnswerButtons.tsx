@@ -1,6 +1,6 @@
 import type { ReactNode } from 'react';
 
-/** A one-tap answer: at least 64 × 64 px, for gloved fingers (look-and-feel.md). */
+/** A one-tap answer: at least 64 × 64 px, for gloved fingers. */
 export function Answer(props: {
   children: ReactNode;
   onTap: () => void;

@@ -1,5 +1,6 @@
 import { useState } from 'react';
 import { averageLengthMm, ISO_SIZES, referencePointsFor } from '../../lib/rules/core';
+import { preparationLabel } from '../../lib/present/labels';
 import { newId } from '../../lib/client/ids';
 import { clampLength } from '../../lib/client/flow';
 import { useChairside } from '../../lib/client/store';
@@ -11,11 +12,7 @@ import { CONE_DESIGNATIONS } from './cardTypes';
 import { SEALERS } from './StepCardsPrep';
 
 const MAF_SIZES = ISO_SIZES.filter((s) => Number(s) >= 15 && Number(s) <= 60);
-const PREPARATIONS = [
-  ['step-back', 'Step-back'],
-  ['0.04', 'Taper 0.04'],
-  ['0.06', 'Taper 0.06'],
-] as const;
+const PREPARATIONS = (['step-back', '0.04', '0.06'] as const).map((k) => [k, preparationLabel(k)] as const);
 const CONE_SIZES = [...CONE_DESIGNATIONS, '20', '25'];
 
 /** One card per canal: reference point, CWL, MAF, preparation, spreader and cone sizes, sealer, orifice depth. */

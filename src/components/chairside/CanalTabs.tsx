@@ -1,15 +1,5 @@
 import type { CanalInfo } from '../../lib/client/events';
-
-const STATUS_WORD: Record<string, string> = {
-  'set-up': 'set up',
-  verified: 'verified',
-  'cone-fitted': 'cone fitted',
-  compacting: 'compacting',
-  filled: 'filled',
-  seared: 'seared',
-  restored: 'restored',
-  submitted: 'submitted',
-};
+import { canalStatusLabel } from '../../lib/present/labels';
 
 /** Canals as large tabs with a small status word, plus "Add canal" and "Finish tooth". */
 export function CanalTabs(props: {
@@ -38,7 +28,7 @@ export function CanalTabs(props: {
             className={tab(active)}
           >
             {c.name}
-            {status && <span className="block text-sm font-normal">{STATUS_WORD[status] ?? status}</span>}
+            {status && <span className="block text-sm font-normal">{canalStatusLabel(status)}</span>}
           </button>
         );
       })}

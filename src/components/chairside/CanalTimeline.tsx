@@ -1,6 +1,7 @@
 import { useMemo, useState } from 'react';
 import type { LogEvent } from '../../lib/rules/core';
-import { describeEvent } from '../../lib/client/describe';
+import { describeEvent } from '../../lib/present/events';
+import { DEFAULT_CLINIC, formatInstant } from '../../lib/present/format';
 import { liveEvents } from '../../lib/client/events';
 import { useChairside } from '../../lib/client/store';
 
@@ -11,6 +12,7 @@ import { useChairside } from '../../lib/client/store';
 export function CanalTimeline({ canalId, events }: { canalId: string; events: LogEvent[] }) {
   const [open, setOpen] = useState(false);
   const record = useChairside((s) => s.record);
+  const clinic = useChairside((s) => s.identity.user?.clinic) ?? DEFAULT_CLINIC;
   const list = useMemo(() => liveEvents(events).filter((e) => e.canalId === canalId), [events, canalId]);
   return (
     <section aria-label="Timeline" className="mt-4">
@@ -29,7 +31,7 @@ export function CanalTimeline({ canalId, events }: { canalId: string; events: Lo
               key={e.id}
               className="flex flex-wrap items-center gap-3 bg-white border border-line rounded-lg px-3 py-1"
             >
-              <span className="text-sm text-muted tabular">{new Date(e.at).toLocaleTimeString()}</span>
+              <span className="text-sm text-muted tabular">{formatInstant(e.at, clinic, 'time')}</span>
               <span className="text-base flex-1">{describeEvent(e)}</span>
               {e.type !== 'canal.added' && (
                 <button

@@ -1,5 +1,6 @@
 import { useEffect, useMemo, useState } from 'react';
-import { SETTING_LABEL } from '../shared/labels';
+import { SETTING_LABEL } from '../../lib/present/labels';
+import { DEFAULT_CLINIC, formatInstant } from '../../lib/present/format';
 import { fetchCases, type CaseSummary } from '../../lib/client/api';
 import { casesIn } from '../../lib/client/events';
 import { useChairside } from '../../lib/client/store';
@@ -10,6 +11,7 @@ export function CaseList({ onNew }: { onNew: () => void }) {
   const rows = useChairside((s) => s.rows);
   const openCase = useChairside((s) => s.openCase);
   const restoreCase = useChairside((s) => s.restoreCase);
+  const clinic = useChairside((s) => s.identity.user?.clinic) ?? DEFAULT_CLINIC;
   const cases = useMemo(() => casesIn(rows.filter((r) => r.state !== 'rejected').map((r) => r.event)), [rows]);
   const [remote, setRemote] = useState<CaseSummary[]>([]);
   useEffect(() => {
@@ -42,7 +44,7 @@ export function CaseList({ onNew }: { onNew: () => void }) {
               <li key={c.caseId} className="flex flex-wrap items-center gap-3">
                 <Answer onTap={() => openCase(c.caseId)}>{c.tooth ? `Tooth ${c.tooth}` : 'Block'}</Answer>
                 <span className="text-base">
-                  {SETTING_LABEL[c.setting]} · opened {new Date(c.openedAt).toLocaleString()}
+                  {SETTING_LABEL[c.setting]} · opened {formatInstant(c.openedAt, clinic)}
                   {c.submitted ? ' · submitted' : ''}
                 </span>
               </li>

@@ -8,7 +8,7 @@ const REASONS = ['MAF radiograph', 'apex locator', 'other'] as const;
 
 /**
  * Correcting the CWL records `canal.cwlCorrected`; every length check is then judged
- * against the new value (rules.md), and the cards centre their rulers on it.
+ * against the new value (docs/rules.md), and the cards centre their rulers on it.
  */
 export function CwlCorrection({ canalId, cwlMm }: { canalId: string; cwlMm: number }) {
   const [open, setOpen] = useState(false);

@@ -1,8 +1,7 @@
 import type { Finding, Severity } from '../../lib/rules/core';
+import { bySeverity, SEVERITY_WORD } from '../../lib/present/labels';
 
-const WORD: Record<Severity, string> = { stop: 'Stop', caution: 'Caution', note: 'Note' };
 const TEXT: Record<Severity, string> = { stop: 'text-stop', caution: 'text-caution', note: 'text-note' };
-const ORDER: Record<Severity, number> = { stop: 0, caution: 1, note: 2 };
 
 /** The severity's shape (square, triangle, circle) and word: colour never stands alone. */
 export function SeverityMark({ severity }: { severity: Severity }) {
@@ -13,14 +12,14 @@ export function SeverityMark({ severity }: { severity: Severity }) {
         {severity === 'caution' && <polygon points="9,1 17,16 1,16" fill="currentColor" />}
         {severity === 'note' && <circle cx="9" cy="9" r="7" fill="currentColor" />}
       </svg>
-      {WORD[severity]}
+      {SEVERITY_WORD[severity]}
     </span>
   );
 }
 
 /** Findings sorted stops first, each with its mark and the message for the student. */
 export function FindingList(props: { findings: Finding[]; source: 'server' | 'tablet'; empty?: string }) {
-  const list = [...props.findings].sort((a, b) => ORDER[a.severity] - ORDER[b.severity]);
+  const list = bySeverity(props.findings);
   return (
     <section aria-label="Findings" className="mt-3" data-testid="findings-panel" data-source={props.source}>
       <h3 className="text-lg font-bold">

@@ -1,12 +1,14 @@
 import { useMemo } from 'react';
 import { useChairside } from '../../lib/client/store';
 import { rejectedIn } from '../../lib/client/views';
-import { describeEvent } from '../../lib/client/describe';
+import { describeEvent } from '../../lib/present/events';
+import { DEFAULT_CLINIC, formatInstant } from '../../lib/present/format';
 
 /** Events the server did not accept stay visible with its reason until the student dismisses them. */
 export function RejectedList({ caseId }: { caseId: string | null }) {
   const rows = useChairside((s) => s.rows);
   const dismiss = useChairside((s) => s.dismiss);
+  const clinic = useChairside((s) => s.identity.user?.clinic) ?? DEFAULT_CLINIC;
   const rejected = useMemo(() => rejectedIn(rows, caseId), [rows, caseId]);
   if (rejected.length === 0) return null;
   return (
@@ -22,7 +24,7 @@ export function RejectedList({ caseId }: { caseId: string | null }) {
         {rejected.map((r) => (
           <li key={r.event.id} className="flex flex-wrap items-center gap-3">
             <span className="text-base">
-              <span className="font-bold">{describeEvent(r.event)}</span> at {new Date(r.event.at).toLocaleTimeString()}
+              <span className="font-bold">{describeEvent(r.event)}</span> at {formatInstant(r.event.at, clinic, 'time')}
               : {r.error}
             </span>
             <button

@@ -1,12 +1,11 @@
 import { useState } from 'react';
 import { rulerValues } from '../../lib/client/flow';
+import { mmValue } from '../../lib/present/format';
 
 const SPANS = [2, 5, 10, 20];
 
-/** Lengths shown with one decimal and tabular figures: 17 → "17.0". */
-export function mm(v: number): string {
-  return v.toFixed(1);
-}
+/** Lengths on the cards: one decimal, tabular figures (17 → "17.0"). */
+export const mm = mmValue;
 
 /**
  * The ruler strip: one tap records a length. Buttons of 0.5 mm, at least 64 px square,

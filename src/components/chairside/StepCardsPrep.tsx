@@ -1,5 +1,6 @@
 import { useState } from 'react';
 import { ISO_SIZES } from '../../lib/rules/core';
+import { capitalise, SEALER_LABEL } from '../../lib/present/labels';
 import { IsoChip } from '../shared/IsoChip';
 import { Answer, Answers, Chip, ChipGroup, StepCard } from './AnswerButtons';
 import { mm, RulerStrip } from './RulerStrip';
@@ -189,13 +190,10 @@ export function MasterCard({ canal, rec, centre, refit }: CardProps & { centre: 
   );
 }
 
-export const SEALERS = [
-  ['epoxy-resin', 'Epoxy resin'],
-  ['zoe', 'ZOE'],
-  ['calcium-silicate', 'Calcium silicate'],
-  ['calcium-hydroxide', 'Calcium hydroxide'],
-  ['other', 'Other'],
-] as const;
+/** The sealers as chips, the usual one first. */
+export const SEALERS = (['epoxy-resin', 'zoe', 'calcium-silicate', 'calcium-hydroxide', 'other'] as const).map(
+  (k) => [k, capitalise(SEALER_LABEL[k])] as const,
+);
 
 type Sealer = (typeof SEALERS)[number][0];
 const isSealer = (s: string | undefined): s is Sealer => SEALERS.some(([k]) => k === s);

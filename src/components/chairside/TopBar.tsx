@@ -1,6 +1,6 @@
 import { fdiToUniversal, toothName } from '../../lib/rules/core';
 import { DemoBanner } from '../shared/DemoBanner';
-import { SETTING_LABEL } from '../shared/labels';
+import { SETTING_LABEL } from '../../lib/present/labels';
 import type { CaseInfo } from '../../lib/client/events';
 import { useChairside } from '../../lib/client/store';
 import { SyncBadge } from './SyncBadge';

@@ -18,5 +18,5 @@ export function sizesAround(size: string, iso: readonly string[]): string[] {
   return iso.slice(Math.max(0, i - 2), i + 3);
 }
 
-/** Spreader and accessory cone designations offered first (chairside-flow.md). */
+/** Spreader and accessory cone designations offered first: the sizes most used in lateral compaction, so most taps need no scrolling. */
 export const CONE_DESIGNATIONS = ['FF', 'MF', 'F', 'M'] as const;

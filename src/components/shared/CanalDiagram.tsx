@@ -1,4 +1,5 @@
 import type { CanalState } from '../../lib/rules/core';
+import { mmValue } from '../../lib/present/format';
 
 /** The parts of a canal's derived state the diagram draws (CanalState from the rules core). */
 export type DiagramState = Pick<
@@ -16,7 +17,7 @@ const GUTTA = '#D9683B';
 const GUTTA_STRONG = '#B4521F';
 const MUTED = '#4A5566';
 
-const f1 = (v: number) => v.toFixed(1);
+const f1 = mmValue;
 
 /**
  * The canal from reference point to CWL: thirds shaded, orifice and CWL marked, the master

@@ -1,4 +1,4 @@
-import type { CaseDetail, CaseSummary, MeAnswer, Role, SyncAnswer } from '../contract';
+import type { CaseDetail, CaseSummary, Clinic, MeAnswer, Role, SyncAnswer } from '../contract';
 import type { LogEvent } from '../rules/core';
 
 export type { CaseSummary, MeAnswer, SyncAnswer };
@@ -9,6 +9,8 @@ export interface Me {
   email?: string;
   name: string;
   role: Role;
+  /** The clinic's time zone and locale, kept with the user so the tablet shows times offline too. */
+  clinic?: Clinic;
 }
 
 /** What came back: a value, "not signed in", or no answer at all (offline, server down). */

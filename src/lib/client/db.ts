@@ -41,8 +41,8 @@ function openDb(): Promise<IDBDatabase> {
 
 /**
  * A UseStore for one of our object stores. `strict` asks Chromium to flush the write to
- * disk before the transaction completes (stack-notes.md: it reports writes done earlier
- * otherwise) — used for the outbox, whose writes must survive a power cut.
+ * disk before the transaction completes (by default it reports writes done
+ * earlier) — used for the outbox, whose writes must survive a power cut.
  */
 export function useStore(name: StoreName, strict = false): UseStore {
   return (txMode, callback) =>

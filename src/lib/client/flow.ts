@@ -1,7 +1,7 @@
 import { field, liveEvents, type FlowEvent, type Setting } from './events';
 
 /**
- * Which card the stepper shows next for a canal (chairside-flow.md, "The canal's steps").
+ * Which card the stepper shows next for a canal (docs/architecture.md, "The tablet").
  * Pure: it reads the canal's events and a little context and never judges a value — the
  * rules core does that. Steps are found by what has been recorded, not by position, so a
  * canal restored from the server or recorded out of order still lands on the right card.

@@ -39,15 +39,16 @@ export async function resolveIdentity(): Promise<Identity> {
   const last = await getMeta<Me>(LAST_USER);
   const me = await fetchMe();
   if (me.kind === 'ok') {
-    const { id, name, role } = me.value;
+    const { id, name, role, clinic } = me.value;
     const demo = me.value.demo === true;
     if (last && last.id !== id) await clearUserIfSynced(last.id);
-    await setMeta(LAST_USER, { id, name, role } satisfies Me);
+    const user: Me = clinic ? { id, name, role, clinic } : { id, name, role };
+    await setMeta(LAST_USER, user);
     await setMeta(DEMO_MODE, demo);
     // A server from before the contract had a version reports none: it knows version 1.
     const serverContract = typeof me.value.contractVersion === 'number' ? me.value.contractVersion : 1;
     await setMeta(SERVER_CONTRACT, serverContract);
-    return { user: { id, name, role }, source: 'server', signedOut: false, demo, serverContract };
+    return { user, source: 'server', signedOut: false, demo, serverContract };
   }
   const demo = (await getMeta<boolean>(DEMO_MODE)) === true;
   const serverContract = (await getMeta<number>(SERVER_CONTRACT)) ?? 1;

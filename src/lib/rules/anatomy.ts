@@ -1,5 +1,5 @@
 // Per-tooth anatomy the tablet proposes and the rules compare against. Sources and labels
-// are from references.md; where a value has no published source here it says "memory".
+// are from docs/references.md; where a value has no published source here it says "memory".
 import { isValidFdi, toothGroup } from './teeth';
 
 /** The label we give the only canal of a single-canal tooth (our own word; any short label is allowed). */

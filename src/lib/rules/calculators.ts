@@ -1,4 +1,4 @@
-// Chairside calculators. Sources and labels from references.md. Invalid input gives NaN (or
+// Chairside calculators. Sources and labels from docs/references.md. Invalid input gives NaN (or
 // an empty schedule) rather than an exception, so a half-typed form never breaks a screen.
 import { ISO_SIZES, isIsoSize } from './sizes';
 

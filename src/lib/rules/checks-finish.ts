@@ -17,7 +17,7 @@ function searChecks(v: CanalView): Finding[] {
     ? ` (No orifice depth was recorded, so the thirds are estimated: the coronal third is taken to end at ${fmtMm(v.thirds.coronalEndMm)}, from the ${fmtMm(v.tol.fallbackStopDepthMm)} rule of thumb.)`
     : '';
   // No spreader placement at all: compaction never started, so it is not complete either
-  // (rules.md speaks only of "the last spreader depth"; this is our reading).
+  // (the checks speak only of "the last spreader depth"; this is our reading, docs/rules.md).
   if (last === undefined) {
     out.push(
       raise(
@@ -117,7 +117,7 @@ function submissionChecks(v: CanalView): Finding[] {
   if (submitted === undefined) return [];
   const out: Finding[] = [];
   // From everything recorded: a restoration or radiograph recorded after submission counts.
-  // restoration-missing is not marked "tooth" in rules.md, so it applies to a training block too.
+  // restoration-missing is not a tooth-only check (docs/rules.md), so it applies to a training block too.
   if (v.of('access.restored').length === 0) {
     out.push(
       raise(

@@ -1,4 +1,4 @@
-// The catalogue of findings in rules.md: for each code, what raises it, its source and its
+// The catalogue of findings (docs/rules.md is rendered from it): for each code, what raises it, its source and its
 // tolerance; the severities are in severities.ts. The reference page (docs/rules.md) and the
 // tests read it; the chairside island raises findings without it.
 import { SEVERITY, type FindingCode, type Severity } from './severities';
@@ -186,7 +186,7 @@ const CATALOGUE: Record<FindingCode, Omit<FindingInfo, 'severity'>> = {
   },
 };
 
-/** Every finding code, in the order of rules.md's table. */
+/** Every finding code, in the order of docs/rules.md's table. */
 export const FINDING_CODES = /* @__PURE__ */ Object.keys(SEVERITY) as FindingCode[];
 
 function withSeverities(catalogue: typeof CATALOGUE): Record<FindingCode, FindingInfo> {
@@ -195,7 +195,7 @@ function withSeverities(catalogue: typeof CATALOGUE): Record<FindingCode, Findin
   ) as Record<FindingCode, FindingInfo>;
 }
 
-/** Every finding with its severity, in the order of rules.md's table. */
+/** Every finding with its severity, in the order of docs/rules.md's table. */
 // Marked pure so that a bundle that does not read FINDINGS (the chairside island) leaves the
 // catalogue out: a call at module level is otherwise kept for its possible side effects.
 export const FINDINGS = /* @__PURE__ */ withSeverities(CATALOGUE);

@@ -3,7 +3,7 @@
 import { FINDINGS, FINDING_CODES, SAFETY_LINE } from './findings';
 import { DEFAULT_TOLERANCES, TOLERANCE_SOURCES, type Tolerances } from './tolerances';
 
-/** How this module reads the places where rules.md leaves room; each is also commented in the code. */
+/** How this module reads the places where the checks' wording leaves room; each is also commented in the code. */
 export const READINGS: readonly string[] = [
   'Where a set-up event (`case.opened`, `canal.added`) is recorded twice and neither is voided, the latest counts; the case is the one the earliest `canal.added` of the canal names.',
   'A void counts only for an event of its own scope (the same canal, or both case-level); `event.voided` may therefore be case-level. A void that is itself the target of any void voids nothing (one level, so the order voids are read never matters).',
@@ -15,10 +15,24 @@ export const READINGS: readonly string[] = [
   '`compaction-incomplete` is raised at sear-off also when no spreader placement was recorded at all. On a training block with no recorded orifice depth the orifice is its top (0), not an estimate.',
   '`few-accessory-cones` counts the kept cones placed before the latest sear-off; `fill-check-radiograph-missing` wants a fill-check radiograph after the last kept cone (any, when there is none).',
   'The fill categories are fixed by the contract at 2 mm: `fill-short` is raised for "short-over-2" while `fillShortLimitMm` is 2 or less, and not when a director raises the limit (the category cannot show the fill passed a larger limit).',
-  '`sear-above-cej` is raised for any level above the CEJ, at the orifice or not; `restoration-missing` applies to training blocks too (rules.md does not mark it "tooth").',
+  '`sear-above-cej` is raised for any level above the CEJ, at the orifice or not; `restoration-missing` applies to training blocks too (its check is not marked "tooth").',
   'Sizes: a number is read as the ISO size it names (35 → "35", 6 → "06"); a string must be written as the contract writes it ("06", not "6"; designations in capitals). All size fields accept designations, as the input errors allow, though a file (`mafSize`, `fileSize`) is in practice an ISO size.',
   "Free text is trimmed; `name`, `referencePoint`, `text` and `agent` must not be empty; `reason` must be present but may be empty. `chartRef` (≤ 64) and `agent` (≤ 60) are not among the contract's free-text fields and take our own limits. A tooth on a training block is allowed and ignored by the rules.",
   'Status is the furthest step any event reaches: set-up (canal.added) → verified (seat or taper check, rinse, drying, working-length or MAF radiograph) → cone fitted (master cone fit or cone-fit radiograph) → compacting (seating, spreader, accessory cone) → filled (fill assessment or fill-check radiograph) → seared (sear-off, vertical compaction, chamber cleaned) → restored → submitted.',
+];
+
+/** How the thirds are drawn (thirds.ts); tests/lib/rules/thirds.test.ts holds the worked example. */
+const THIRDS: readonly string[] = [
+  "The canal runs from its orifice, at depth `o` from the reference point, to the CWL; a training block's top is its orifice (`o` = 0). With `L = CWL − o` the coronal third is `[o, o + L/3]`, the middle third `[o + L/3, o + 2L/3]` and the apical third `[o + 2L/3, CWL]`.",
+  '',
+  'Lateral compaction is complete once the latest spreader depth is at most `o + L/3`: the spreader no longer passes the coronal third.',
+  '',
+  "Where a tooth's orifice depth was not recorded, `o` is estimated so that the coronal third ends at the fallback stop depth `s` (`fallbackStopDepthMm`, trade teaching of about 10–12 mm from a cusp tip): `o = (3s − CWL) / 2`, kept within `[0, CWL / 2]`. For a CWL of 21 mm and `s` = 12 mm the orifice is put at 7.5 mm. Such thirds are marked as estimated, and `compaction-incomplete` says so.",
+];
+
+/** What the rules derive for one canal (state.ts); the server adds the review states. */
+const DERIVED_STATE: readonly string[] = [
+  "From a canal's live events the rules derive: its status (set-up, verified, cone-fitted, compacting, filled, seared, restored, submitted; the review states approved and returned come from the sign-off records, and the server puts them in place of the status), the current CWL, the accessory cones kept and those withdrawn, the spreader depths in order, the thirds and whether they are estimated, whether compaction is complete, the radiographs by purpose, the time from the first to the last event, and the open findings.",
 ];
 
 const cell = (s: string) => s.replace(/\|/g, '\\|').replace(/\n/g, ' ');
@@ -37,7 +51,7 @@ export function renderRulesDoc(): string {
     '',
     `> ${SAFETY_LINE}`,
     '',
-    'Severity: **stop** must be put right before the canal can be signed off; **caution** the attending must see; **note** is information. "Tooth:" marks checks that do not apply to a training block. Source labels (seen, partly, memory, practice) are those of `references.md`.',
+    'Severity: **stop** must be put right before the canal can be signed off; **caution** the attending must see; **note** is information. "Tooth:" marks checks that do not apply to a training block. Source labels (seen, partly, memory, practice) are those of [references.md](references.md).',
     '',
     '## Findings',
     '',
@@ -59,7 +73,15 @@ export function renderRulesDoc(): string {
       (k) => `| \`${k}\` | ${formatDefault(k)} | ${cell(TOLERANCE_SOURCES[k])} |`,
     ),
     '',
-    '## How this module reads rules.md',
+    '## Canal thirds and when compaction is complete',
+    '',
+    ...THIRDS,
+    '',
+    '## Derived canal state',
+    '',
+    ...DERIVED_STATE,
+    '',
+    '## How the checks are read where their wording leaves room',
     '',
     ...READINGS.map((r) => `- ${r}`),
     '',

@@ -1,4 +1,4 @@
-// The severity of every finding, in the order of rules.md's table: the one list of finding
+// The severity of every finding, in the order of docs/rules.md's table: the one list of finding
 // codes, and how a check raises a finding. Apart from the catalogue (findings.ts) so that the
 // browser, which raises findings but never shows the catalogue's prose, does not load it.
 export type Severity = 'stop' | 'caution' | 'note';

@@ -1,5 +1,5 @@
 // Instrument and cone sizes: ISO 3630-1 (files, spreaders) and ISO 6877 (gutta-percha points).
-// Values and labels as in references.md.
+// Values and labels as in docs/references.md.
 
 /** ISO sizes as written: 06, 08, 10, 15–60 by 5, 70–140 by 10 (ISO 3630-1 as summarised — partly). */
 export const ISO_SIZES: readonly string[] = Object.freeze([

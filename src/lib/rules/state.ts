@@ -1,4 +1,4 @@
-// The derived state of one canal (rules.md, "Derived canal state").
+// The derived state of one canal (docs/rules.md, "Derived canal state").
 import type { EventType, RadiographPurpose } from './events';
 import { isCompactionComplete, type CanalThirds } from './thirds';
 import { instant } from './timeline';

@@ -1,4 +1,4 @@
-// Canal thirds and when lateral compaction is complete (rules.md, "Canal thirds").
+// Canal thirds and when lateral compaction is complete (docs/rules.md, "Canal thirds").
 import { DEFAULT_TOLERANCES } from './tolerances';
 
 export interface CanalThirds {

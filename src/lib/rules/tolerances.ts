@@ -1,5 +1,5 @@
 // Tolerances a course director may change. Defaults are the trade's usual values; the
-// source of each (labels from references.md) and any disagreement is written beside it.
+// source of each (labels from docs/references.md) and any disagreement is written beside it.
 
 export interface Tolerances {
   cwlUnusualMarginMm: number;

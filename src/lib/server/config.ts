@@ -5,6 +5,7 @@
 import { randomBytes } from 'node:crypto';
 import { existsSync, readFileSync, writeFileSync } from 'node:fs';
 import { resolve } from 'node:path';
+import { clinicProblem, DEFAULT_CLINIC, type Clinic } from '../present/format';
 import { dataPaths, secureDataDir, securePrivateFile } from './files';
 
 export interface ServerConfig {
@@ -14,6 +15,8 @@ export interface ServerConfig {
   s3: { endpoint: string | undefined; bucket: string; region: string; accessKeyId: string; secretAccessKey: string };
   smtp: { host: string; port: number; from: string };
   publicUrl: string;
+  /** Every date and time a page or the tablet shows is in this zone and locale. */
+  clinic: Clinic;
 }
 
 let cached: ServerConfig | null = null;
@@ -33,6 +36,20 @@ function authSecret(dataDir: string): string {
   const secret = randomBytes(32).toString('hex');
   writeFileSync(file, secret + '\n', { mode: 0o600 });
   return secret;
+}
+
+/**
+ * CLINIC_TIME_ZONE (IANA, default Europe/London) and CLINIC_LOCALE (BCP 47, default en-GB).
+ * A value Intl does not know is refused at start, never quietly replaced by the default.
+ */
+export function clinicFromEnv(env: NodeJS.ProcessEnv = process.env): Clinic {
+  const clinic = {
+    timeZone: env.CLINIC_TIME_ZONE?.trim() || DEFAULT_CLINIC.timeZone,
+    locale: env.CLINIC_LOCALE?.trim() || DEFAULT_CLINIC.locale,
+  };
+  const problem = clinicProblem(clinic);
+  if (problem) throw new Error(`CLINIC_TIME_ZONE / CLINIC_LOCALE: ${problem}`);
+  return clinic;
 }
 
 export function config(): ServerConfig {
@@ -56,6 +73,7 @@ export function config(): ServerConfig {
       from: process.env.MAIL_FROM ?? 'Coneline <coneline@localhost>',
     },
     publicUrl: process.env.PUBLIC_URL ?? `http://localhost:${port}`,
+    clinic: clinicFromEnv(),
   };
   return cached;
 }

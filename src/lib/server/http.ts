@@ -9,8 +9,8 @@ export function json(body: unknown, status = 200): Response {
 }
 
 /**
- * Astro's origin check covers form bodies only, so JSON writes compare Origin themselves
- * (stack-notes.md). Same origin = the scheme, host and port of the request as Astro resolved
+ * Astro's origin check covers form bodies only, so JSON writes compare Origin themselves.
+ * Same origin = the scheme, host and port of the request as Astro resolved
  * it from the allowed Host / X-Forwarded-* headers (astro.config.mjs, allowedDomains).
  */
 export function sameOrigin(request: Request): boolean {

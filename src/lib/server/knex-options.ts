@@ -7,7 +7,7 @@ interface SqliteConnection {
 
 /**
  * Every connection sets WAL, synchronous=FULL and foreign keys: better-sqlite3 quietly
- * defaults WAL databases to NORMAL after the first open (stack-notes.md).
+ * defaults WAL databases to NORMAL after the first open.
  */
 export function sqliteOptions(filename: string): Knex.Config {
   return {

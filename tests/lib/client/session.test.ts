@@ -44,6 +44,14 @@ describe('resolveIdentity', () => {
     expect(await resolveIdentity()).toEqual({ user: mira, source: 'tablet', signedOut: false, demo: false });
   });
 
+  it('keeps the clinic’s time zone and locale with the user, so times show in the clinic’s zone offline', async () => {
+    const clinic = { timeZone: 'Pacific/Auckland', locale: 'en-NZ' };
+    vi.stubGlobal('fetch', answer(200, { ...mira, clinic }));
+    expect((await resolveIdentity()).user).toEqual({ ...mira, clinic });
+    vi.stubGlobal('fetch', offline);
+    expect(await resolveIdentity()).toMatchObject({ user: { ...mira, clinic }, source: 'tablet' });
+  });
+
   it('keeps demo mode as the server last said it, offline and after a sign-out, until the server says otherwise', async () => {
     vi.stubGlobal('fetch', answer(200, { ...mira, demo: true }));
     expect((await resolveIdentity()).demo).toBe(true);

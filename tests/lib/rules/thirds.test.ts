@@ -11,7 +11,7 @@ describe('canalThirds', () => {
       estimated: false,
     });
   });
-  it('puts the orifice at 7.5 mm for a CWL of 21 mm with the 12 mm fallback stop depth (rules.md; practice: 10–12 mm from a cusp tip)', () => {
+  it('puts the orifice at 7.5 mm for a CWL of 21 mm with the 12 mm fallback stop depth (docs/rules.md; practice: 10–12 mm from a cusp tip)', () => {
     expect(canalThirds(21, undefined)).toEqual({
       orificeMm: 7.5,
       coronalEndMm: 12,

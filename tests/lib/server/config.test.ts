@@ -32,3 +32,24 @@ describe('config', () => {
     expect((await freshConfig())().authSecret).toBe('s'.repeat(32));
   });
 });
+
+describe('clinicFromEnv', () => {
+  const load = async () => (await import('../../../src/lib/server/config')).clinicFromEnv;
+
+  it('defaults to Europe/London and en-GB with nothing set', async () => {
+    expect((await load())({})).toEqual({ timeZone: 'Europe/London', locale: 'en-GB' });
+  });
+
+  it('takes CLINIC_TIME_ZONE and CLINIC_LOCALE as given', async () => {
+    expect((await load())({ CLINIC_TIME_ZONE: 'Pacific/Auckland', CLINIC_LOCALE: 'en-NZ' })).toEqual({
+      timeZone: 'Pacific/Auckland',
+      locale: 'en-NZ',
+    });
+  });
+
+  it('refuses a zone or locale Intl does not know instead of quietly using the default', async () => {
+    const clinicFromEnv = await load();
+    expect(() => clinicFromEnv({ CLINIC_TIME_ZONE: 'Europe/Nowhere' })).toThrow(/CLINIC_TIME_ZONE/);
+    expect(() => clinicFromEnv({ CLINIC_LOCALE: 'en_GB!' })).toThrow(/locale/);
+  });
+});

@@ -1,18 +1,21 @@
 import type { APIRoute } from 'astro';
 import { CONTRACT_VERSION, type MeAnswer } from '../../../lib/contract';
+import { config } from '../../../lib/server/config';
 import { demoMode } from '../../../lib/server/demo-mode';
 import { json, jsonError } from '../../../lib/server/http';
 
 export const GET: APIRoute = async ({ locals }) => {
   const user = locals.user;
   if (!user) return jsonError(401, 'Sign in first.');
-  // `demo`: the chairside island is a static page and learns from here whether to show the banner.
+  // `demo` and `clinic`: the chairside island is a static page and learns from here whether to
+  // show the banner and in which zone and locale to show times.
   const me: MeAnswer = {
     id: user.id,
     email: user.email,
     name: user.name,
     role: user.role,
     demo: await demoMode(),
+    clinic: config().clinic,
     contractVersion: CONTRACT_VERSION,
   };
   return json(me);

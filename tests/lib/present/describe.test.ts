@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { describeEvent } from '../../../src/lib/client/describe';
+import { describeEvent } from '../../../src/lib/present/events';
 
 const e = (type: string, data: object) => ({
   id: 'x',

@@ -1,0 +1,74 @@
+// One line in our own words for each recorded event: the canal's timeline on the tablet and
+// on the case page.
+import { mm } from './format';
+import {
+  fillLabel,
+  plainWords,
+  pointSizeLabel,
+  purposeLabel,
+  restorationLabel,
+  sealerLabel,
+  seatLabel,
+  solutionLabel,
+} from './labels';
+
+/** The part of an event a description reads: its type and data (the rules core checked them). */
+export interface DescribedEvent {
+  type: string;
+  data?: object;
+}
+
+/** One line for an event, e.g. "Spreader MF: 17.0 mm" or "Radiograph taken (MAF)". */
+export function describeEvent(e: DescribedEvent): string {
+  const data = (e.data ?? {}) as Record<string, unknown>;
+  const s = (k: string) => (data[k] === undefined ? '' : String(data[k]));
+  switch (e.type) {
+    case 'case.opened':
+      return data.tooth ? `Case opened: tooth ${s('tooth')}` : 'Case opened: training block';
+    case 'canal.added':
+      return `Canal ${s('name')} set up: CWL ${mm(data.cwlMm)}, MAF ${s('mafSize')}`;
+    case 'canal.cwlCorrected':
+      return `CWL corrected to ${mm(data.cwlMm)}`;
+    case 'seat.checked':
+      return `MAF seat check: ${seatLabel(s('result'))}`;
+    case 'taper.checked':
+      return `Taper check, spreader ${s('spreader')}: ${mm(data.depthMm)}`;
+    case 'radiograph.taken':
+      return `Radiograph taken (${purposeLabel(s('purpose'))})`;
+    case 'canal.rinsed':
+      return `Final rinse: ${((data.solutions as string[] | undefined) ?? []).map(solutionLabel).join(' + ')}`;
+    case 'canal.dried':
+      return `Paper points (${pointSizeLabel(s('pointSize'))}): ${mm(data.measuredMm)}`;
+    case 'master.fitted':
+      return `Master cone ${s('size')}: ${mm(data.lengthMm)}, ${data.reachedLength ? 'reached' : 'short'}`;
+    case 'master.seated':
+      return `Master cone seated with sealer (${sealerLabel(s('sealer'))})`;
+    case 'spreader.placed':
+      return `Spreader ${s('spreader')}: ${mm(data.depthMm)}`;
+    case 'accessory.placed':
+      return `Accessory cone ${s('size')}: ${mm(data.lengthMm)}, ${data.reachedLength ? 'reached' : 'stopped short'}`;
+    case 'fill.assessed':
+      return `Fill check: ${fillLabel(s('length'))}, ${data.voids ? 'voids seen' : 'no voids'}`;
+    case 'gp.seared': {
+      const cej = data.relativeToCejMm;
+      return `Seared ${data.atOrifice ? 'at the orifice' : 'elsewhere'}${typeof cej === 'number' ? ` (${cej.toFixed(1)} mm to the CEJ)` : ''}`;
+    }
+    case 'chamber.cleaned':
+      return `Chamber cleaned (${s('agent')})`;
+    case 'gp.compacted':
+      return 'Vertical compaction done';
+    case 'access.restored':
+      return `Access restored (${restorationLabel(s('kind'))})`;
+    case 'accessory.removed':
+      return 'Short cone removed';
+    case 'note.added':
+      return 'Note';
+    case 'event.voided':
+      return 'Withdrawn';
+    case 'case.submitted':
+      return 'Submitted for review';
+    default:
+      // A type from a newer server: its words, without the label table the tablet never needs.
+      return plainWords(e.type);
+  }
+}

@@ -1,0 +1,61 @@
+// Numbers, dates and times as every screen shows them.
+
+/** A length's number with one decimal, for rulers and diagrams: 17 → "17.0". */
+export function mmValue(value: number): string {
+  return value.toFixed(1);
+}
+
+/** A length with one decimal and its unit: 17 → "17.0 mm"; anything else → "—". */
+export function mm(value: unknown): string {
+  return typeof value === 'number' && Number.isFinite(value) ? `${mmValue(value)} mm` : '—';
+}
+
+/** The clinic's time zone (IANA) and locale (BCP 47): every date and time is shown in these. */
+export interface Clinic {
+  timeZone: string;
+  locale: string;
+}
+
+/** Used until the server says otherwise: a teaching clinic in the UK, dates as day/month/year. */
+export const DEFAULT_CLINIC: Readonly<Clinic> = { timeZone: 'Europe/London', locale: 'en-GB' };
+
+/** Why `clinic` cannot be used, or null. Intl is the judge: it knows the zones and locales of this runtime. */
+export function clinicProblem(clinic: Clinic): string | null {
+  try {
+    if (Intl.DateTimeFormat.supportedLocalesOf([clinic.locale]).length === 0) {
+      return `the locale "${clinic.locale}" is not known to this runtime`;
+    }
+  } catch {
+    return `"${clinic.locale}" is not a locale (use a tag such as en-GB)`;
+  }
+  try {
+    new Intl.DateTimeFormat(clinic.locale, { timeZone: clinic.timeZone });
+  } catch {
+    return `"${clinic.timeZone}" is not a time zone (use an IANA name such as Europe/London)`;
+  }
+  return null;
+}
+
+export type InstantStyle = 'date' | 'time' | 'dateTime';
+const OPTIONS: Record<InstantStyle, Intl.DateTimeFormatOptions> = {
+  date: { day: 'numeric', month: 'short', year: 'numeric' },
+  time: { hour: '2-digit', minute: '2-digit' },
+  dateTime: { day: 'numeric', month: 'short', year: 'numeric', hour: '2-digit', minute: '2-digit' },
+};
+const formats = new Map<string, Intl.DateTimeFormat>();
+
+/**
+ * An ISO instant in the clinic's zone and locale, e.g. "2026-03-01T23:30:00Z" in
+ * Pacific/Auckland, en-GB, 'date' → "2 Mar 2026". An unreadable instant → "—".
+ */
+export function formatInstant(iso: string, clinic: Clinic, style: InstantStyle = 'dateTime'): string {
+  const t = Date.parse(iso);
+  if (!Number.isFinite(t)) return '—';
+  const key = `${clinic.locale}|${clinic.timeZone}|${style}`;
+  let f = formats.get(key);
+  if (!f) {
+    f = new Intl.DateTimeFormat(clinic.locale, { ...OPTIONS[style], timeZone: clinic.timeZone });
+    formats.set(key, f);
+  }
+  return f.format(t);
+}

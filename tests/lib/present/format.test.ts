@@ -1,0 +1,43 @@
+import { describe, expect, it } from 'vitest';
+import { clinicProblem, DEFAULT_CLINIC, formatInstant, mm } from '../../../src/lib/present/format';
+
+describe('formatInstant', () => {
+  // Invented times. Auckland is 13 h ahead of UTC in March (daylight saving), so late evening
+  // UTC is already the next day there.
+  const auckland = { timeZone: 'Pacific/Auckland', locale: 'en-GB' };
+
+  it('shows the clinic’s date where it differs from the UTC date', () => {
+    expect(formatInstant('2026-03-01T23:30:00Z', auckland, 'date')).toBe('2 Mar 2026');
+    expect(formatInstant('2026-03-01T23:30:00Z', { timeZone: 'UTC', locale: 'en-GB' }, 'date')).toBe('1 Mar 2026');
+  });
+
+  it('shows the clinic’s time of day', () => {
+    expect(formatInstant('2026-03-01T23:30:00Z', auckland, 'time')).toBe('12:30');
+    expect(formatInstant('2026-07-01T08:05:00Z', DEFAULT_CLINIC, 'time')).toBe('09:05');
+  });
+
+  it('follows the clinic’s locale', () => {
+    expect(formatInstant('2026-03-01T23:30:00Z', { timeZone: 'America/New_York', locale: 'en-US' }, 'date')).toBe(
+      'Mar 1, 2026',
+    );
+  });
+
+  it('shows a dash for an instant it cannot read', () => {
+    expect(formatInstant('not a date', DEFAULT_CLINIC)).toBe('—');
+  });
+});
+
+describe('clinicProblem', () => {
+  it('accepts the default and refuses a zone or locale Intl does not know', () => {
+    expect(clinicProblem(DEFAULT_CLINIC)).toBeNull();
+    expect(clinicProblem({ timeZone: 'Mars/Olympus', locale: 'en-GB' })).toMatch(/time zone/);
+    expect(clinicProblem({ timeZone: 'Europe/London', locale: 'not a locale!' })).toMatch(/locale/);
+  });
+});
+
+describe('mm', () => {
+  it('shows one decimal and the unit, and a dash for no value', () => {
+    expect(mm(17)).toBe('17.0 mm');
+    expect(mm(undefined)).toBe('—');
+  });
+});
