@@ -1,5 +1,6 @@
 /** Who may read which case: the student who owns it, their assigned attendings, directors. */
 import type { Knex } from 'knex';
+import type { CaseState } from '../rules/index';
 
 export interface CaseRow {
   id: string;
@@ -9,7 +10,7 @@ export interface CaseRow {
   chart_ref: string | null;
   opened_at: string;
   submitted_at: string | null;
-  review_status: 'open' | 'submitted' | 'approved' | 'returned';
+  review_status: CaseState;
   signed_off_at: string | null;
 }
 
