@@ -4,9 +4,8 @@
  * (docs/sync-contract.md). What may be stored is decided in sync-admit.ts.
  */
 import type { Knex } from 'knex';
-import { canonicalEvent, parseEvent, type CanalResult, type LogEvent, type Tolerances } from '../rules/index';
-import { recomputeCanals, withReviewStatus } from './canal-store';
-import { tolerances } from './settings';
+import { canonicalEvent, parseEvent, type CanalResult, type LogEvent } from '../rules/index';
+import { currentJudge, projectCase } from './projection';
 import { keep, limitBreach, priorFate, refusal, type Known, type KnownCase, type KnownEvent } from './sync-admit';
 import { loadTallies } from './sync-limits';
 
@@ -97,37 +96,6 @@ async function loadKnown(trx: Knex, userId: number, parsed: Parsed[], refused: S
   };
 }
 
-/**
- * Recomputes the touched canals of one case and answers them as readers see them; keeps the
- * case's review status in step (a new submission queues it, a withdrawn one takes it out).
- */
-async function recomputeCase(
-  trx: Knex,
-  c: KnownCase,
-  which: Set<string> | 'all',
-  submitted: boolean,
-  tol: Tolerances,
-  at: string,
-): Promise<CanalResult[]> {
-  const ids =
-    which === 'all'
-      ? ((await trx('canals').select('id').where({ case_id: c.id }).orderBy('id')) as { id: string }[]).map((r) => r.id)
-      : [...which];
-  const out = await recomputeCanals(trx, c.id, ids, tol);
-  // Whether a submission stands once voids are applied (the rules' status says so; a case
-  // with no canal yet has only the new event to go by).
-  const live = out.length > 0 ? out.some((r) => r.state.status === 'submitted') : submitted;
-  const change: Record<string, unknown> = { updated_at: trx.fn.now() };
-  if (submitted && live && (c.review_status === 'open' || c.review_status === 'returned')) {
-    Object.assign(change, { review_status: 'submitted', submitted_at: at });
-  } else if (which === 'all' && c.review_status === 'submitted' && !live) {
-    Object.assign(change, { review_status: 'open', submitted_at: null });
-  }
-  await trx('cases').where({ id: c.id }).update(change);
-  const review = (change.review_status as string | undefined) ?? c.review_status;
-  return out.map((r) => withReviewStatus(r, review));
-}
-
 /** Stores what it can of one batch for `userId` (a student) sent from `deviceId`. */
 export async function ingestBatch(
   k: Knex,
@@ -150,13 +118,14 @@ export async function ingestBatch(
     if (id) refused.add(id);
   });
 
-  const tol = await tolerances(k);
+  // The settings are read once per batch, not per canal.
+  const judge = await currentJudge(k, now.toISOString());
   return k.transaction(async (trx) => {
     const known = await loadKnown(trx, userId, parsed, refused);
     const toInsert: Record<string, unknown>[] = [];
     const touched = new Map<string, Set<string> | 'all'>();
     const submittedCases = new Set<string>();
-    const receivedAt = now.toISOString();
+    const receivedAt = judge.at;
     const deferred = new Set<Parsed>();
 
     /** Decides one event: answers it, or keeps it to be stored. `final`: no more deferring. */
@@ -233,9 +202,7 @@ export async function ingestBatch(
     for (let i = 0; i < toInsert.length; i += 250) await trx('events').insert(toInsert.slice(i, i + 250));
     const canals: CanalResult[] = [];
     for (const [caseId, which] of touched) {
-      canals.push(
-        ...(await recomputeCase(trx, known.cases.get(caseId)!, which, submittedCases.has(caseId), tol, receivedAt)),
-      );
+      canals.push(...(await projectCase(trx, known.cases.get(caseId)!, which, submittedCases.has(caseId), judge)));
     }
     return {
       results: results.map((r, i) => r ?? { id: idOf(rawEvents[i]), status: 'rejected', error: 'not processed' }),
