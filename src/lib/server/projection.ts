@@ -211,6 +211,47 @@ export async function projectCanals(
   return out;
 }
 
+/** Stores a new case as `case.opened` describes it, in the lifecycle's first state. */
+export async function openCase(
+  k: Knex,
+  row: {
+    id: string;
+    student_id: number;
+    setting: string;
+    tooth: number | null;
+    chart_ref: string | null;
+    opened_at: string;
+  },
+): Promise<ProjectedCase> {
+  await k('cases').insert({ ...row, review_status: 'open' });
+  return { id: row.id, review_status: 'open' };
+}
+
+/** Stores a new canal as `canal.added` names it, not yet judged (the batch's projection judges it). */
+export async function addCanal(k: Knex, row: { id: string; case_id: string; name: string }): Promise<void> {
+  await k('canals').insert({ ...row, status: 'set-up', state_json: '{}' });
+}
+
+/**
+ * Moves a case by an attending's review (`approve`, `return`) through the lifecycle; throws
+ * with the lifecycle's reason when the case may not move so.
+ */
+export async function reviewCase(
+  k: Knex,
+  caseId: string,
+  action: 'approve' | 'return',
+  at: string,
+): Promise<CaseState> {
+  const row = (await k('cases').where({ id: caseId }).first('review_status')) as ProjectedCase | undefined;
+  if (!row) throw new Error(`no case ${caseId}`);
+  const moved = next(row.review_status, action);
+  if (isRefusal(moved)) throw new Error(moved.refused);
+  await k('cases')
+    .where({ id: caseId })
+    .update({ review_status: moved, signed_off_at: moved === 'approved' ? at : null, updated_at: k.fn.now() });
+  return moved;
+}
+
 /** A case as the projection needs it. */
 export interface ProjectedCase {
   id: string;

@@ -5,7 +5,7 @@
  */
 import type { Knex } from 'knex';
 import { canonicalEvent, parseEvent, type CanalResult, type LogEvent } from '../rules/index';
-import { currentJudge, projectCase } from './projection';
+import { addCanal, currentJudge, openCase, projectCase } from './projection';
 import { keep, limitBreach, priorFate, refusal, type Known, type KnownCase, type KnownEvent } from './sync-admit';
 import { loadTallies } from './sync-limits';
 
@@ -148,24 +148,17 @@ export async function ingestBatch(
       }
       if (e.type === 'case.opened') {
         const d = e.data;
-        await trx('cases').insert({
+        const c = await openCase(trx, {
           id: e.caseId,
           student_id: userId,
           setting: d.setting,
           tooth: d.tooth ?? null,
           chart_ref: d.chartRef ?? null,
           opened_at: e.at,
-          review_status: 'open',
         });
-        known.cases.set(e.caseId, { id: e.caseId, student_id: userId, review_status: 'open' });
+        known.cases.set(e.caseId, { ...c, student_id: userId });
       } else if (e.type === 'canal.added') {
-        await trx('canals').insert({
-          id: e.canalId,
-          case_id: e.caseId,
-          name: e.data.name,
-          status: 'set-up',
-          state_json: '{}',
-        });
+        await addCanal(trx, { id: e.canalId!, case_id: e.caseId, name: e.data.name });
         known.canals.set(e.canalId!, { caseId: e.caseId, studentId: userId });
       }
       keep(e, known);
