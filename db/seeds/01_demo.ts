@@ -8,9 +8,11 @@ import type { Knex } from 'knex';
 import { ASSIGNMENTS, COHORT, DEMO_PASSWORD, PEOPLE, demoCases } from '../demo/clinic';
 import { hashPassword } from '../../src/lib/server/users';
 import { ingestBatch } from '../../src/lib/server/sync';
+import { reviewCase } from '../../src/lib/server/projection';
 
 const TABLES = [
   'audit_log',
+  'recompute_jobs',
   'settings',
   'password_resets',
   'invitations',
@@ -67,12 +69,7 @@ export async function seed(knex: Knex): Promise<void> {
         attending_id: ids.get(c.review.by),
         created_at: at,
       });
-      await knex('cases')
-        .where({ id: c.script.caseId })
-        .update({
-          review_status: c.review.decision,
-          signed_off_at: c.review.decision === 'approved' ? at : null,
-        });
+      await reviewCase(knex, c.script.caseId, c.review.decision === 'approved' ? 'approve' : 'return', at);
     }
   }
 }

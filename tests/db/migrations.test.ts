@@ -96,12 +96,45 @@ describe('the migrations', () => {
     });
     expect(await k('users').first('demo')).toMatchObject({ demo: 0 });
     expect(await k('cohorts').first('demo')).toMatchObject({ demo: 0 });
+    // The demo marker is undone by the second step down (the projection's migration is first).
     await k.migrate.down({ migrationSource: bundledMigrations });
-    const user: unknown = await k("users").first();
+    await k.migrate.down({ migrationSource: bundledMigrations });
+    const user: unknown = await k('users').first();
     expect(user).not.toHaveProperty('demo');
     // Rebuilding the tables must not fire their foreign keys' ON DELETE actions.
     expect(user).toMatchObject({ email: 'real@example.org', cohort_id: cohortId });
     expect(await k('sessions').pluck('id')).toEqual(['s1']);
+  });
+
+  it('open a history row for every finding already stored, split the old tolerances row, and roll back keeping the findings', async () => {
+    await k.migrate.latest({ migrationSource: bundledMigrations });
+    await k.migrate.down({ migrationSource: bundledMigrations }); // back to before the projection
+    const [userId] = (
+      await k('users').insert({ email: 's@example.org', name: 'S', role: 'student' }).returning('id')
+    ).map((r) => (r as { id: number }).id);
+    const caseId = '00000000-0000-4000-8000-000000000010';
+    const canalId = '00000000-0000-4000-8000-000000000011';
+    await k('cases').insert({ id: caseId, student_id: userId, setting: 'block', opened_at: '2026-12-01T09:00:00Z' });
+    await k('canals').insert({ id: canalId, case_id: caseId, name: 'Main', status: 'set-up', state_json: '{}' });
+    await k('findings').insert({
+      canal_id: canalId,
+      case_id: caseId,
+      code: 'fill-voids',
+      severity: 'stop',
+      message: 'm',
+    });
+    await k('settings').insert({ key: 'tolerances', value_json: '{"minAccessoryCones":4,"oops":"x"}' });
+
+    await k.migrate.latest({ migrationSource: bundledMigrations });
+    expect(await k('finding_history').select('canal_id', 'code', 'cleared_at')).toEqual([
+      { canal_id: canalId, code: 'fill-voids', cleared_at: null },
+    ]);
+    expect(await k('settings').select('key', 'value_json')).toEqual([{ key: 'minAccessoryCones', value_json: '4' }]);
+    expect(await k('settings_version').first('version')).toEqual({ version: 1 });
+
+    // Dropping the canals' new columns rebuilds the table; its findings must survive it.
+    await k.migrate.down({ migrationSource: bundledMigrations });
+    expect(await k('findings').pluck('code')).toEqual(['fill-voids']);
   });
 
   it('are recorded under the same names by the Knex CLI and by the server', async () => {

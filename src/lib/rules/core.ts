@@ -17,7 +17,26 @@ export { SOLUTIONS } from './fields';
 export { parseEvent, canonicalEvent } from './parse';
 export { LIMITS, LIMIT_MESSAGES, CaseTally, tallyOf, tallyEvent } from './limits';
 export type { CaseLimit, LimitBreach, TallyEvent } from './limits';
-export { DEFAULT_TOLERANCES, TOLERANCE_SOURCES, resolveTolerances } from './tolerances';
+export {
+  DEFAULT_TOLERANCES,
+  TOLERANCE_SOURCES,
+  TOLERANCE_RANGES,
+  resolveTolerances,
+  toleranceInRange,
+} from './tolerances';
+export { RULES_VERSION } from './version';
+export {
+  CASE_STATES,
+  CASE_ACTIONS,
+  TRANSITIONS,
+  CASE_STATE_LABELS,
+  REVIEW_STATES_SHOWN_ON_CANALS,
+  next,
+  isRefusal,
+  isCaseState,
+  isLocked,
+} from './lifecycle';
+export type { CaseState, CaseAction, Refusal as LifecycleRefusal } from './lifecycle';
 export type { Tolerances } from './tolerances';
 export { FINDINGS, FINDING_CODES, SAFETY_LINE } from './findings';
 export type { Severity, FindingCode, Finding, FindingInfo } from './findings';

@@ -1,7 +1,7 @@
 // Renders docs/rules.md from the catalogue, so the reference page cannot drift from the code.
 // scripts/gen-rules-doc.ts writes it; a test regenerates it and compares.
 import { FINDINGS, FINDING_CODES, SAFETY_LINE } from './findings';
-import { DEFAULT_TOLERANCES, TOLERANCE_SOURCES, type Tolerances } from './tolerances';
+import { DEFAULT_TOLERANCES, TOLERANCE_RANGES, TOLERANCE_SOURCES, type Tolerances } from './tolerances';
 
 /** How this module reads the places where the checks' wording leaves room; each is also commented in the code. */
 export const READINGS: readonly string[] = [
@@ -42,6 +42,11 @@ function formatDefault(key: keyof Tolerances): string {
   return key.endsWith('Mm') ? `${v.toFixed(1)} mm` : String(v);
 }
 
+function formatRange(key: keyof Tolerances): string {
+  const r = TOLERANCE_RANGES[key];
+  return `${r.min}–${r.max}${key.endsWith('Mm') ? ' mm' : ''}`;
+}
+
 /** The reference page as Markdown. */
 export function renderRulesDoc(): string {
   const lines = [
@@ -65,12 +70,12 @@ export function renderRulesDoc(): string {
     '',
     '## Tolerances',
     '',
-    'A course director may change these; a value that is not a finite, non-negative number falls back to its default.',
+    'A course director may change these within the range shown (inclusive); the server refuses a change outside it, and a stored value outside it (or not a number) is logged and replaced by its default. The ranges are our judgement: wide enough for every value the sources disagree on, narrow enough that a slip of the keyboard cannot switch a check off.',
     '',
-    '| setting | default | source |',
-    '| --- | --- | --- |',
+    '| setting | default | range | source |',
+    '| --- | --- | --- | --- |',
     ...(Object.keys(DEFAULT_TOLERANCES) as (keyof Tolerances)[]).map(
-      (k) => `| \`${k}\` | ${formatDefault(k)} | ${cell(TOLERANCE_SOURCES[k])} |`,
+      (k) => `| \`${k}\` | ${formatDefault(k)} | ${formatRange(k)} | ${cell(TOLERANCE_SOURCES[k])} |`,
     ),
     '',
     '## Canal thirds and when compaction is complete',

@@ -46,6 +46,29 @@ export const DEFAULT_TOLERANCES: Tolerances = Object.freeze({
   fillShortLimitMm: 2, // ESE 2006 (seen, secondary); Jurič 2024 (seen)
 });
 
+/**
+ * The range a director may set each tolerance within (inclusive). Our judgement: wide enough
+ * for every value the sources above disagree on, narrow enough that a slip of the keyboard
+ * (20 for 2.0) cannot switch a check off. Every default lies inside its range.
+ */
+export const TOLERANCE_RANGES: Readonly<Record<keyof Tolerances, { min: number; max: number }>> = Object.freeze({
+  cwlUnusualMarginMm: { min: 1, max: 10 },
+  taperShortMarginMm: { min: 0, max: 3 },
+  masterLengthMarginMm: { min: 0, max: 2 },
+  coneFitRetakeThresholdMm: { min: 0.5, max: 3 },
+  firstSpreaderMarginMm: { min: 0.5, max: 5 },
+  accessoryLengthMarginMm: { min: 0, max: 2 },
+  minAccessoryCones: { min: 0, max: 10 },
+  fallbackStopDepthMm: { min: 8, max: 16 },
+  fillShortLimitMm: { min: 0.5, max: 3 },
+});
+
+/** Whether `value` is a number a director may set `key` to (finite, within its range). */
+export function toleranceInRange(key: keyof Tolerances, value: unknown): value is number {
+  const r = TOLERANCE_RANGES[key];
+  return typeof value === 'number' && Number.isFinite(value) && value >= r.min && value <= r.max;
+}
+
 /** Fills in defaults; a value that is not a finite, non-negative number falls back to its default. */
 export function resolveTolerances(partial?: Partial<Tolerances> | null): Tolerances {
   const out: Tolerances = { ...DEFAULT_TOLERANCES };

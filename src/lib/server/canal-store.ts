@@ -1,12 +1,14 @@
-/** Reads and writes the derived canal rows: state, status and findings, from the rules core. */
+/**
+ * Reads the derived canal rows (state, status and findings) as the API answers them. The
+ * projection (projection.ts) is their only writer.
+ */
 import type { Knex } from 'knex';
-import { evaluateCanal, type CanalResult, type LogEvent, type Tolerances } from '../rules/index';
-import { tolerances } from './settings';
+import { REVIEW_STATES_SHOWN_ON_CANALS, type CanalResult, type CaseState, type LogEvent } from '../rules/index';
 
 /** Status of a canal whose canal.added was withdrawn. */
 export const REMOVED = 'removed';
 
-interface EventRow {
+export interface EventRow {
   id: string;
   case_id: string;
   canal_id: string | null;
@@ -32,83 +34,6 @@ export async function caseEvents(k: Knex, caseId: string): Promise<LogEvent[]> {
     .select('id', 'case_id', 'canal_id', 'type', 'at', 'data_json')
     .where({ case_id: caseId });
   return rows.map(rowToEvent);
-}
-
-/**
- * The case-level events of a case and the events of the given canals, by canal: all a canal's
- * rules see (its canal.added names its case; a void counts only in its own scope).
- */
-async function eventsFor(
-  k: Knex,
-  caseId: string,
-  canalIds: readonly string[],
-): Promise<{ caseLevel: LogEvent[]; byCanal: Map<string, LogEvent[]> }> {
-  const select = () =>
-    k<EventRow>('events').select('id', 'case_id', 'canal_id', 'type', 'at', 'data_json').where({ case_id: caseId });
-  const rows: EventRow[] = await select().whereNull('canal_id');
-  // Chunks keep each query under SQLite's limit on bound values.
-  for (let i = 0; i < canalIds.length; i += 400)
-    rows.push(...(await select().whereIn('canal_id', canalIds.slice(i, i + 400))));
-  const caseLevel: LogEvent[] = [];
-  const byCanal = new Map<string, LogEvent[]>(canalIds.map((id) => [id, []]));
-  for (const r of rows) {
-    if (r.canal_id === null) caseLevel.push(rowToEvent(r));
-    else byCanal.get(r.canal_id)?.push(rowToEvent(r));
-  }
-  return { caseLevel, byCanal };
-}
-
-/**
- * Recomputes and stores the given canals of one case; returns their results. Each canal is
- * evaluated with its own events and the case-level ones only, so a batch that touched one
- * canal reads and judges that canal, not the whole case.
- */
-export async function recomputeCanals(
-  k: Knex,
-  caseId: string,
-  canalIds: Iterable<string>,
-  tol?: Tolerances,
-): Promise<CanalResult[]> {
-  const ids = [...canalIds];
-  const { caseLevel, byCanal } = await eventsFor(k, caseId, ids);
-  const t = tol ?? (await tolerances(k));
-  const out: CanalResult[] = [];
-  for (const canalId of ids) {
-    const result = evaluateCanal(canalId, [...caseLevel, ...(byCanal.get(canalId) ?? [])], t);
-    if (!result) {
-      // Its canal.added was voided: the canal no longer exists for the rules or the reader.
-      await k('findings').where({ canal_id: canalId }).delete();
-      await k('canals')
-        .where({ id: canalId })
-        .update({ status: REMOVED, stops: 0, cautions: 0, notes: 0, updated_at: k.fn.now() });
-      continue;
-    }
-    const count = (s: string) => result.findings.filter((f) => f.severity === s).length;
-    await k('canals')
-      .where({ id: canalId })
-      .update({
-        status: result.state.status,
-        name: result.state.name,
-        state_json: JSON.stringify(result.state),
-        stops: count('stop'),
-        cautions: count('caution'),
-        notes: count('note'),
-        updated_at: k.fn.now(),
-      });
-    await k('findings').where({ canal_id: canalId }).delete();
-    const rows = result.findings.map((f) => ({
-      canal_id: canalId,
-      case_id: caseId,
-      code: f.code,
-      severity: f.severity,
-      event_id: f.eventId ?? null,
-      message: f.message,
-    }));
-    // SQLite takes at most 500 rows in one multi-row insert; a canal can have more findings.
-    for (let i = 0; i < rows.length; i += 100) await k('findings').insert(rows.slice(i, i + 100));
-    out.push(result);
-  }
-  return out;
 }
 
 interface CanalRow {
@@ -179,6 +104,6 @@ export function storedCanalsOfCase(k: Knex, caseId: string): Promise<CanalResult
  * sign-offs, not from the events, and replace the rules' status (rules.md, derived state).
  */
 export function withReviewStatus(result: CanalResult, reviewStatus: string): CanalResult {
-  if (reviewStatus !== 'approved' && reviewStatus !== 'returned') return result;
+  if (!REVIEW_STATES_SHOWN_ON_CANALS.includes(reviewStatus as CaseState)) return result;
   return { ...result, state: { ...result.state, status: reviewStatus as CanalResult['state']['status'] } };
 }

@@ -4,6 +4,7 @@ import { config } from './config';
 import { holdDatabaseLock } from './data-lock';
 import { secureDataDir, secureDbFile } from './files';
 import { sqliteOptions } from './knex-options';
+import { startRecompute, stopRecompute } from './recompute';
 
 type MigrationModule = Knex.Migration;
 
@@ -37,13 +38,21 @@ export function db(): Promise<Knex> {
     secureDbFile(file);
     instance = knexFactory(sqliteOptions(file));
     const k = instance;
-    ready = k.migrate.latest({ migrationSource: bundledMigrations }).then(() => k);
+    ready = k.migrate.latest({ migrationSource: bundledMigrations }).then(() => {
+      // Canals judged by older rules or settings are judged again in the background, going
+      // on from where a previous run stopped.
+      void startRecompute(k);
+      return k;
+    });
   }
   return ready;
 }
 
 export async function closeDb(): Promise<void> {
-  if (instance) await instance.destroy();
+  if (instance) {
+    await stopRecompute(instance);
+    await instance.destroy();
+  }
   instance = null;
   ready = null;
 }

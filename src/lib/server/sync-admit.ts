@@ -2,12 +2,20 @@
  * Who may store which event, and when: the checks /api/sync makes of each event of a batch
  * against what the server (and the batch so far) already holds. No writes here.
  */
-import { CaseTally, tallyEvent, type LimitBreach, type LogEvent } from '../rules/index';
+import {
+  CaseTally,
+  isRefusal,
+  next,
+  tallyEvent,
+  type CaseState,
+  type LimitBreach,
+  type LogEvent,
+} from '../rules/index';
 
 export interface KnownCase {
   id: string;
   student_id: number;
-  review_status: string;
+  review_status: CaseState;
 }
 
 export interface KnownEvent {
@@ -77,8 +85,9 @@ export function refusal(e: LogEvent, known: Known): Refusal | null {
     return mine ? { error: 'this case was already opened' } : UNKNOWN_CASE;
   }
   if (!c || !mine) return UNKNOWN_CASE;
-  if (c.review_status === 'approved')
-    return { error: 'this case is signed off; ask your attending to reopen it before recording more' };
+  // The lifecycle decides whether the case takes events at all (a signed-off one does not).
+  const lifecycle = next(c.review_status, 'record');
+  if (isRefusal(lifecycle)) return { error: lifecycle.refused };
   const canal = e.canalId === undefined ? undefined : known.canals.get(e.canalId);
   const ours = canal?.studentId === known.userId;
   if (e.type === 'canal.added') {

@@ -4,9 +4,8 @@
  * (docs/sync-contract.md). What may be stored is decided in sync-admit.ts.
  */
 import type { Knex } from 'knex';
-import { canonicalEvent, parseEvent, type CanalResult, type LogEvent, type Tolerances } from '../rules/index';
-import { recomputeCanals, withReviewStatus } from './canal-store';
-import { tolerances } from './settings';
+import { canonicalEvent, parseEvent, type CanalResult, type LogEvent } from '../rules/index';
+import { addCanal, currentJudge, openCase, projectCase } from './projection';
 import { keep, limitBreach, priorFate, refusal, type Known, type KnownCase, type KnownEvent } from './sync-admit';
 import { loadTallies } from './sync-limits';
 
@@ -92,37 +91,6 @@ async function loadKnown(trx: Knex, userId: number, parsed: Parsed[], refused: S
   };
 }
 
-/**
- * Recomputes the touched canals of one case and answers them as readers see them; keeps the
- * case's review status in step (a new submission queues it, a withdrawn one takes it out).
- */
-async function recomputeCase(
-  trx: Knex,
-  c: KnownCase,
-  which: Set<string> | 'all',
-  submitted: boolean,
-  tol: Tolerances,
-  at: string,
-): Promise<CanalResult[]> {
-  const ids =
-    which === 'all'
-      ? ((await trx('canals').select('id').where({ case_id: c.id }).orderBy('id')) as { id: string }[]).map((r) => r.id)
-      : [...which];
-  const out = await recomputeCanals(trx, c.id, ids, tol);
-  // Whether a submission stands once voids are applied (the rules' status says so; a case
-  // with no canal yet has only the new event to go by).
-  const live = out.length > 0 ? out.some((r) => r.state.status === 'submitted') : submitted;
-  const change: Record<string, unknown> = { updated_at: trx.fn.now() };
-  if (submitted && live && (c.review_status === 'open' || c.review_status === 'returned')) {
-    Object.assign(change, { review_status: 'submitted', submitted_at: at });
-  } else if (which === 'all' && c.review_status === 'submitted' && !live) {
-    Object.assign(change, { review_status: 'open', submitted_at: null });
-  }
-  await trx('cases').where({ id: c.id }).update(change);
-  const review = (change.review_status as string | undefined) ?? c.review_status;
-  return out.map((r) => withReviewStatus(r, review));
-}
-
 /** Stores what it can of one batch for `userId` (a student) sent from `deviceId`. */
 export async function ingestBatch(
   k: Knex,
@@ -145,13 +113,14 @@ export async function ingestBatch(
     if (id) refused.add(id);
   });
 
-  const tol = await tolerances(k);
+  // The settings are read once per batch, not per canal.
+  const judge = await currentJudge(k, now.toISOString());
   return k.transaction(async (trx) => {
     const known = await loadKnown(trx, userId, parsed, refused);
     const toInsert: Record<string, unknown>[] = [];
     const touched = new Map<string, Set<string> | 'all'>();
     const submittedCases = new Set<string>();
-    const receivedAt = now.toISOString();
+    const receivedAt = judge.at;
     const deferred = new Set<Parsed>();
 
     /** Decides one event: answers it, or keeps it to be stored. `final`: no more deferring. */
@@ -174,24 +143,17 @@ export async function ingestBatch(
       }
       if (e.type === 'case.opened') {
         const d = e.data;
-        await trx('cases').insert({
+        const c = await openCase(trx, {
           id: e.caseId,
           student_id: userId,
           setting: d.setting,
           tooth: d.tooth ?? null,
           chart_ref: d.chartRef ?? null,
           opened_at: e.at,
-          review_status: 'open',
         });
-        known.cases.set(e.caseId, { id: e.caseId, student_id: userId, review_status: 'open' });
+        known.cases.set(e.caseId, { ...c, student_id: userId });
       } else if (e.type === 'canal.added') {
-        await trx('canals').insert({
-          id: e.canalId,
-          case_id: e.caseId,
-          name: e.data.name,
-          status: 'set-up',
-          state_json: '{}',
-        });
+        await addCanal(trx, { id: e.canalId!, case_id: e.caseId, name: e.data.name });
         known.canals.set(e.canalId!, { caseId: e.caseId, studentId: userId });
       }
       keep(e, known);
@@ -228,9 +190,7 @@ export async function ingestBatch(
     for (let i = 0; i < toInsert.length; i += 250) await trx('events').insert(toInsert.slice(i, i + 250));
     const canals: CanalResult[] = [];
     for (const [caseId, which] of touched) {
-      canals.push(
-        ...(await recomputeCase(trx, known.cases.get(caseId)!, which, submittedCases.has(caseId), tol, receivedAt)),
-      );
+      canals.push(...(await projectCase(trx, known.cases.get(caseId)!, which, submittedCases.has(caseId), judge)));
     }
     return {
       contractVersion: CONTRACT_VERSION,

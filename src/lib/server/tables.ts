@@ -60,6 +60,40 @@ export interface CanalRow {
   stops: number;
   cautions: number;
   notes: number;
+  /** The rules version (RULES_VERSION) and settings version that judged the canal; null before. */
+  rules_version: number | null;
+  settings_version: number | null;
+  updated_at: string;
+}
+
+/** The columns of `canals` the projection writes (besides id, case_id). */
+export type CanalDerivedRow = Omit<CanalRow, 'id' | 'case_id' | 'updated_at'>;
+
+/** One raising of a finding on a canal, until it is cleared. */
+export interface FindingHistoryRow {
+  id: number;
+  canal_id: string;
+  code: string;
+  event_id: string | null;
+  first_raised_at: string;
+  /** Null while the finding is open. */
+  cleared_at: string | null;
+}
+
+/** The single row (id 1) holding the settings version. */
+export interface SettingsVersionRow {
+  id: number;
+  version: number;
+}
+
+/** The background re-judging of unlocked canals. */
+export interface RecomputeJobRow {
+  name: string;
+  rules_version: number;
+  settings_version: number;
+  /** The last canal id done; null before the first. */
+  cursor: string | null;
+  finished_at: string | null;
   updated_at: string;
 }
 
@@ -203,5 +237,8 @@ declare module 'knex/types/tables' {
     sessions: SessionRow;
     signin_limits: SigninLimitRow;
     request_ids: RequestIdRow;
+    finding_history: FindingHistoryRow;
+    settings_version: SettingsVersionRow;
+    recompute_jobs: RecomputeJobRow;
   }
 }

@@ -39,9 +39,21 @@ afterEach(() => {
 describe('resolveIdentity', () => {
   it('keeps the signed-in user so the tablet works offline as them later', async () => {
     vi.stubGlobal('fetch', answer(200, mira));
-    expect(await resolveIdentity()).toEqual({ user: mira, source: 'server', signedOut: false, demo: false });
+    expect(await resolveIdentity()).toEqual({
+      user: mira,
+      source: 'server',
+      signedOut: false,
+      demo: false,
+      serverContract: 1,
+    });
     vi.stubGlobal('fetch', offline);
-    expect(await resolveIdentity()).toEqual({ user: mira, source: 'tablet', signedOut: false, demo: false });
+    expect(await resolveIdentity()).toEqual({
+      user: mira,
+      source: 'tablet',
+      signedOut: false,
+      demo: false,
+      serverContract: 1,
+    });
   });
 
   it('keeps the clinic’s time zone and locale with the user, so times show in the clinic’s zone offline', async () => {
@@ -56,9 +68,21 @@ describe('resolveIdentity', () => {
     vi.stubGlobal('fetch', answer(200, { ...mira, demo: true }));
     expect((await resolveIdentity()).demo).toBe(true);
     vi.stubGlobal('fetch', offline);
-    expect(await resolveIdentity()).toEqual({ user: mira, source: 'tablet', signedOut: false, demo: true });
+    expect(await resolveIdentity()).toEqual({
+      user: mira,
+      source: 'tablet',
+      signedOut: false,
+      demo: true,
+      serverContract: 1,
+    });
     vi.stubGlobal('fetch', answer(401, { error: 'Sign in first.' }));
-    expect(await resolveIdentity()).toEqual({ user: null, source: null, signedOut: true, demo: true });
+    expect(await resolveIdentity()).toEqual({
+      user: null,
+      source: null,
+      signedOut: true,
+      demo: true,
+      serverContract: 1,
+    });
     vi.stubGlobal('fetch', answer(200, { ...tomas, demo: false }));
     expect((await resolveIdentity()).demo).toBe(false);
     vi.stubGlobal('fetch', offline);
@@ -89,7 +113,13 @@ describe('resolveIdentity', () => {
     vi.stubGlobal('fetch', answer(200, mira));
     await resolveIdentity();
     vi.stubGlobal('fetch', answer(401, { error: 'Sign in first.' }));
-    expect(await resolveIdentity()).toEqual({ user: null, source: null, signedOut: true, demo: false });
+    expect(await resolveIdentity()).toEqual({
+      user: null,
+      source: null,
+      signedOut: true,
+      demo: false,
+      serverContract: 1,
+    });
     vi.stubGlobal('fetch', offline);
     expect((await resolveIdentity()).user).toBeNull();
   });
@@ -109,5 +139,26 @@ describe('deviceId', () => {
     const first = await deviceId();
     expect(first).toMatch(/^tablet-[0-9a-f]{12}$/);
     expect(await deviceId()).toBe(first);
+  });
+});
+
+describe('the server’s contract version', () => {
+  it('is kept from /api/me, offline too, and read as 1 from a server that reports none', async () => {
+    const { resolveIdentity: resolve } = await import('../../../src/lib/client/session');
+    const answer = (body: Record<string, unknown>) =>
+      vi.fn(
+        async () =>
+          new Response(JSON.stringify(body), { status: 200, headers: { 'Content-Type': 'application/json' } }),
+      );
+    vi.stubGlobal('fetch', answer({ id: 21, name: 'Noor', role: 'student', demo: false, contractVersion: 3 }));
+    expect((await resolve()).serverContract).toBe(3);
+    vi.stubGlobal(
+      'fetch',
+      vi.fn(async () => Promise.reject(new TypeError('offline'))),
+    );
+    expect((await resolve()).serverContract).toBe(3);
+    vi.stubGlobal('fetch', answer({ id: 21, name: 'Noor', role: 'student', demo: false }));
+    expect((await resolve()).serverContract).toBe(1);
+    vi.unstubAllGlobals();
   });
 });

@@ -21,7 +21,13 @@ beforeEach(async () => {
   globalThis.indexedDB = new IDBFactory();
   vi.stubGlobal('navigator', { onLine: false });
   useChairside.setState({
-    identity: { user: { id: USER, name: 'Ana', role: 'student' }, source: 'tablet', signedOut: false, demo: false, serverContract: 1 },
+    identity: {
+      user: { id: USER, name: 'Ana', role: 'student' },
+      source: 'tablet',
+      signedOut: false,
+      demo: false,
+      serverContract: 1,
+    },
     rows: [],
     caseId: null,
     error: null,
@@ -45,6 +51,16 @@ async function caseWithCanals(count: number) {
 }
 
 describe('record', () => {
+  it('records nothing of a type the server it last heard from does not know, and says why', async () => {
+    const state = useChairside.getState();
+    useChairside.setState({ identity: { ...state.identity, serverContract: 0 } });
+    expect(
+      await state.record('case.opened', { setting: 'block' }, { caseId: randomUUID(), label: 'case opened' }),
+    ).toBeNull();
+    expect(useChairside.getState().error).toMatch(/server does not know this step yet/);
+    expect(await listEvents(USER)).toHaveLength(0);
+  });
+
   it(`refuses a canal past ${LIMITS.canalsPerCase} with a plain message and writes nothing to the tablet`, async () => {
     const { record } = useChairside.getState();
     await caseWithCanals(LIMITS.canalsPerCase);

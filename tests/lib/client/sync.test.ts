@@ -137,7 +137,11 @@ describe('syncOnce', () => {
         if (batch.length > 2) return { kind: 'status', status: 413 };
         return {
           kind: 'ok',
-          value: { contractVersion: 1, results: batch.map((e) => ({ id: e.id, status: 'stored' as const })), canals: [] },
+          value: {
+            contractVersion: 1,
+            results: batch.map((e) => ({ id: e.id, status: 'stored' as const })),
+            canals: [],
+          },
         };
       },
     });

@@ -1,12 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { z } from 'zod';
-import {
-  canonicalEvent,
-  CASE_LEVEL_ONLY,
-  EVENT_TYPES,
-  formatZodError,
-  parseEvent,
-} from '../../../src/lib/rules';
+import { canonicalEvent, CASE_LEVEL_ONLY, EVENT_TYPES, formatZodError, parseEvent } from '../../../src/lib/rules';
 import { NOW, uuidFor } from './builder';
 
 const CASE = uuidFor(0xc1);

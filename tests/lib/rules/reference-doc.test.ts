@@ -1,6 +1,12 @@
 import { readdirSync, readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { DEFAULT_TOLERANCES, FINDINGS, FINDING_CODES } from '../../../src/lib/rules';
+import {
+  DEFAULT_TOLERANCES,
+  FINDINGS,
+  FINDING_CODES,
+  TOLERANCE_RANGES,
+  toleranceInRange,
+} from '../../../src/lib/rules';
 import { renderRulesDoc } from '../../../src/lib/rules/reference-doc';
 
 const docPath = new URL('../../../docs/rules.md', import.meta.url);
@@ -101,5 +107,24 @@ describe('the rules module', () => {
     expect(inputs.filter((p) => p.includes('zod'))).toEqual([]);
     expect(inputs.filter((p) => !p.includes('src/lib/rules/'))).toEqual([]);
     expect(inputs.some((p) => p.endsWith('src/lib/rules/parse.ts'))).toBe(true);
+  });
+});
+
+describe('TOLERANCE_RANGES', () => {
+  it('gives every tolerance a range that holds its default', () => {
+    expect(Object.keys(TOLERANCE_RANGES).sort()).toEqual(Object.keys(DEFAULT_TOLERANCES).sort());
+    for (const key of Object.keys(DEFAULT_TOLERANCES) as (keyof typeof DEFAULT_TOLERANCES)[]) {
+      expect(TOLERANCE_RANGES[key].min, key).toBeLessThanOrEqual(DEFAULT_TOLERANCES[key]);
+      expect(toleranceInRange(key, DEFAULT_TOLERANCES[key]), key).toBe(true);
+      expect(toleranceInRange(key, TOLERANCE_RANGES[key].max + 0.5), key).toBe(false);
+      expect(toleranceInRange(key, Number.NaN), key).toBe(false);
+    }
+  });
+  it('are listed with their ranges in docs/rules.md', () => {
+    const doc = renderRulesDoc();
+    for (const key of Object.keys(TOLERANCE_RANGES) as (keyof typeof TOLERANCE_RANGES)[]) {
+      const row = doc.split('\n').find((l) => l.startsWith(`| \`${key}\` |`));
+      expect(row, key).toContain(`${TOLERANCE_RANGES[key].min}–${TOLERANCE_RANGES[key].max}`);
+    }
   });
 });
