@@ -1,4 +1,4 @@
-import type { CanalInfo } from '../../lib/client/events';
+import type { CanalInfo } from '../../lib/client/derive';
 
 const STATUS_WORD: Record<string, string> = {
   'set-up': 'set up',

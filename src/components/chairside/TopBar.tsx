@@ -1,7 +1,7 @@
 import { fdiToUniversal, toothName } from '../../lib/rules/core';
 import { DemoBanner } from '../shared/DemoBanner';
 import { SETTING_LABEL } from '../shared/labels';
-import type { CaseInfo } from '../../lib/client/events';
+import type { CaseInfo } from '../../lib/client/derive';
 import { useChairside } from '../../lib/client/store';
 import { SyncBadge } from './SyncBadge';
 

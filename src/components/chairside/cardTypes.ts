@@ -1,5 +1,5 @@
 import type { CanalState, LogEvent } from '../../lib/rules/core';
-import type { CanalInfo, Setting } from '../../lib/client/events';
+import type { CanalInfo, Setting } from '../../lib/client/derive';
 
 /** What every step card gets: the canal, its state, and a way to record an answer. */
 export interface CardProps {

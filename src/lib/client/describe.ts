@@ -1,4 +1,16 @@
-import { field, type FlowEvent } from './events';
+/** An event as the timeline reads it: a LogEvent, or anything shaped like one. */
+export interface FlowEvent {
+  id: string;
+  type: string;
+  at: string;
+  canalId?: string;
+  data?: object;
+}
+
+/** A field of an event's data, typed loosely (parseEvent checked it). */
+export function field<T = unknown>(e: FlowEvent | undefined, key: string): T | undefined {
+  return (e?.data as Record<string, unknown> | undefined)?.[key] as T | undefined;
+}
 
 const mm = (v: unknown) => (typeof v === 'number' ? `${v.toFixed(1)} mm` : '');
 const SOLUTION: Record<string, string> = { naocl: 'NaOCl', edta: 'EDTA', saline: 'saline', chlorhexidine: 'CHX' };

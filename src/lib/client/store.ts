@@ -1,6 +1,7 @@
 import { create } from 'zustand';
 import { parseEvent, type LogEvent } from '../rules/core';
 import { fetchCase } from './api';
+import { CanalMemo, deriveCase, NO_CASE, type TabletCase } from './derive';
 import { newId } from './ids';
 import {
   dismissRejected,
@@ -52,6 +53,8 @@ export interface ChairsideState {
   rows: StoredEvent[];
   server: Record<string, ServerCanal>;
   caseId: string | null;
+  /** The open case as the rules core reads it; recomputed when `rows` or `caseId` change, per canal only where its events did. */
+  tablet: TabletCase;
   canalId: string | null;
   marks: Marks;
   replaceSpreader: Record<string, boolean>;
@@ -106,6 +109,7 @@ export const useChairside = create<ChairsideState>((set, get) => {
     rows: [],
     server: {},
     caseId: null,
+    tablet: NO_CASE,
     canalId: null,
     marks: { finished: {} },
     replaceSpreader: {},
@@ -292,3 +296,16 @@ export const useChairside = create<ChairsideState>((set, get) => {
     },
   };
 });
+
+// The open case is derived here, once per change of the log or of the case, for every
+// component: each canal is read by the rules core only when its own inputs changed.
+const memo = new CanalMemo();
+useChairside.subscribe((s, prev) => {
+  if (s.rows === prev.rows && s.caseId === prev.caseId) return;
+  useChairside.setState({ tablet: deriveCase(s.rows, s.caseId, memo) });
+});
+
+/** How many canal readings the store has asked the rules core for (tests watch it). */
+export function canalEvaluations(): number {
+  return memo.evaluations;
+}

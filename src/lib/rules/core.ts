@@ -21,8 +21,9 @@ export { DEFAULT_TOLERANCES, TOLERANCE_SOURCES, resolveTolerances } from './tole
 export type { Tolerances } from './tolerances';
 export { FINDINGS, FINDING_CODES, SAFETY_LINE } from './findings';
 export type { Severity, FindingCode, Finding, FindingInfo } from './findings';
-export { evaluateCanal } from './evaluate';
-export type { CanalResult } from './evaluate';
+export { evaluateCanal, readCanal } from './evaluate';
+export type { CanalResult, CanalReading } from './evaluate';
+export { caseTimeline, compareEvents } from './timeline';
 export type { CanalState, CanalStatus } from './state';
 export { canalThirds, isCompactionComplete } from './thirds';
 export type { CanalThirds } from './thirds';
