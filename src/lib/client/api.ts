@@ -74,8 +74,44 @@ export function fetchCases(): Promise<Answer<{ cases: CaseSummary[] }>> {
   return call('/api/cases');
 }
 
-export function fetchCase(
-  caseId: string,
-): Promise<Answer<{ caseId: string; events: LogEvent[]; canals: CanalResult[] }>> {
+export type ReviewStatus = 'open' | 'submitted' | 'approved' | 'returned';
+
+/** What GET /api/cases/{caseId} answers (reviewStatus since the conditional GET; absent from older servers). */
+export interface CaseAnswer {
+  caseId: string;
+  reviewStatus?: ReviewStatus;
+  events: LogEvent[];
+  canals: CanalResult[];
+}
+
+export function fetchCase(caseId: string): Promise<Answer<CaseAnswer>> {
   return call(`/api/cases/${encodeURIComponent(caseId)}`);
+}
+
+/** A conditional read of a case: `unchanged` (304) costs the server one query and sends no body. */
+export type CaseNews =
+  | { kind: 'unchanged' }
+  | { kind: 'changed'; etag: string | null; value: CaseAnswer }
+  | Exclude<Answer<never>, { kind: 'ok' }>;
+
+/** GET the case with If-None-Match `etag` (docs/sync-contract.md, "Reading back"). */
+export async function fetchCaseIfChanged(caseId: string, etag: string | null): Promise<CaseNews> {
+  let res: Response;
+  try {
+    res = await fetch(`/api/cases/${encodeURIComponent(caseId)}`, {
+      credentials: 'same-origin',
+      // The answer is never cached by the browser (no-store); the tablet revalidates itself.
+      cache: 'no-store',
+      headers: etag ? { 'If-None-Match': etag } : {},
+    });
+  } catch (e) {
+    return { kind: 'offline', error: e instanceof Error ? e.message : String(e) };
+  }
+  if (res.status === 304) return { kind: 'unchanged' };
+  if (!res.ok) return { kind: 'status', status: res.status };
+  try {
+    return { kind: 'changed', etag: res.headers.get('etag'), value: (await res.json()) as CaseAnswer };
+  } catch {
+    return { kind: 'status', status: res.status, error: 'The server sent something that is not JSON' };
+  }
 }

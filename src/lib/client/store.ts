@@ -1,6 +1,6 @@
 import { create } from 'zustand';
 import { parseEvent, type LogEvent } from '../rules/core';
-import { fetchCase } from './api';
+import { fetchCase, type ReviewStatus } from './api';
 import { CanalMemo, deriveCase, NO_CASE, type TabletCase } from './derive';
 import { newId } from './ids';
 import {
@@ -55,6 +55,8 @@ export interface ChairsideState {
   caseId: string | null;
   /** The open case as the rules core reads it; recomputed when `rows` or `caseId` change, per canal only where its events did. */
   tablet: TabletCase;
+  /** Each case's review status as the server last answered it (pulled while the case is open). */
+  reviews: Record<string, ReviewStatus>;
   canalId: string | null;
   marks: Marks;
   replaceSpreader: Record<string, boolean>;
@@ -110,6 +112,7 @@ export const useChairside = create<ChairsideState>((set, get) => {
     server: {},
     caseId: null,
     tablet: NO_CASE,
+    reviews: {},
     canalId: null,
     marks: { finished: {} },
     replaceSpreader: {},
@@ -127,7 +130,8 @@ export const useChairside = create<ChairsideState>((set, get) => {
       if (id !== undefined) {
         const current = await getMeta<{ caseId: string | null; canalId: string | null }>([id, 'current']);
         const marks = (await getMeta<Marks>([id, 'marks'])) ?? { finished: {} };
-        set({ caseId: current?.caseId ?? null, canalId: current?.canalId ?? null, marks });
+        const reviews = (await getMeta<Record<string, ReviewStatus>>([id, 'reviews'])) ?? {};
+        set({ caseId: current?.caseId ?? null, canalId: current?.canalId ?? null, marks, reviews });
         await get().reload();
       }
       set({ phase: 'ready' });
@@ -135,9 +139,25 @@ export const useChairside = create<ChairsideState>((set, get) => {
         loop = new SyncLoop({
           deviceId: dev,
           userId: uid,
+          // From the rows in memory: deciding whether there is work reads no IndexedDB.
+          pending: () => get().rows.filter((r) => r.state === 'queued').length,
+          pullCaseId: () => {
+            const { caseId, rows } = get();
+            // A case the server has seen: one of its events was answered stored.
+            return caseId && rows.some((r) => r.event.caseId === caseId && r.state === 'synced') ? caseId : null;
+          },
           onStatus: (s) => set({ sync: { ...s } }),
           onOutcome: (o) => {
             if (o.kind === 'signed-out') set({ identity: { ...get().identity, signedOut: true } });
+            void get().reload();
+          },
+          onPulled: (caseId, o) => {
+            if (o.kind !== 'changed') return;
+            if (o.reviewStatus && get().reviews[caseId] !== o.reviewStatus) {
+              const reviews = { ...get().reviews, [caseId]: o.reviewStatus };
+              set({ reviews });
+              void setMeta([id, 'reviews'], reviews);
+            }
             void get().reload();
           },
         });
@@ -303,6 +323,9 @@ const memo = new CanalMemo();
 useChairside.subscribe((s, prev) => {
   if (s.rows === prev.rows && s.caseId === prev.caseId) return;
   useChairside.setState({ tablet: deriveCase(s.rows, s.caseId, memo) });
+  // A case just opened is pulled at once; otherwise the loop only re-checks whether it has work.
+  if (s.caseId !== prev.caseId && s.caseId !== null) void loop?.kick(false);
+  else loop?.poke();
 });
 
 /** How many canal readings the store has asked the rules core for (tests watch it). */
