@@ -166,11 +166,23 @@ describe('syncOnce, the retry cap', () => {
 
 describe('toBatches', () => {
   it('cuts the outbox into batches of at most 500 events', () => {
-    const rows = Array.from({ length: 1201 }, () => ({ userId: 1, event: event(), seq: 0, state: 'queued' as const }));
+    const rows = Array.from({ length: 1201 }, () => ({
+      kind: 'event' as const,
+      userId: 1,
+      event: event(),
+      seq: 0,
+      state: 'queued' as const,
+    }));
     expect(toBatches(rows).map((b) => b.length)).toEqual([500, 500, 201]);
   });
   it('cuts by size too', () => {
-    const rows = Array.from({ length: 10 }, () => ({ userId: 1, event: event(), seq: 0, state: 'queued' as const }));
+    const rows = Array.from({ length: 10 }, () => ({
+      kind: 'event' as const,
+      userId: 1,
+      event: event(),
+      seq: 0,
+      state: 'queued' as const,
+    }));
     expect(toBatches(rows, 500, 400).length).toBeGreaterThan(1);
   });
 });
