@@ -18,6 +18,7 @@ export default function ChairsideApp() {
   const caseId = useChairside((s) => s.caseId);
   const tablet = useChairside((s) => s.tablet);
   const error = useChairside((s) => s.error);
+  const persistence = useChairside((s) => s.persistence);
   const openCase = useChairside((s) => s.openCase);
   const [creating, setCreating] = useState(false);
   const [signingOut, setSigningOut] = useState(false);
@@ -97,6 +98,12 @@ export default function ChairsideApp() {
         {error && (
           <p role="alert" className="mx-3 mt-3 p-3 border-2 border-stop bg-white text-stop font-bold">
             {error}
+          </p>
+        )}
+        {persistence === 'refused' && identity.user && (
+          <p className="mx-3 mt-3 text-base border-l-4 border-caution pl-3" data-testid="storage-note">
+            This browser has not promised to keep Coneline&apos;s data: if the tablet runs short of storage it may clear
+            records that are not yet sent. Sync soon.
           </p>
         )}
         <div className="p-3">{body}</div>

@@ -16,6 +16,7 @@ import {
   type StoredEvent,
 } from './outbox';
 import { deviceId as loadDeviceId, leave, resolveIdentity, type Identity } from './session';
+import { askToKeepData, type Persistence } from './storage';
 import { SyncLoop, type SyncStatus } from './syncLoop';
 import { limitRefusal } from './views';
 
@@ -57,6 +58,8 @@ export interface ChairsideState {
   tablet: TabletCase;
   /** Each case's review status as the server last answered it (pulled while the case is open). */
   reviews: Record<string, ReviewStatus>;
+  /** Whether the browser keeps the outbox under storage pressure (asked after sign-in). */
+  persistence: Persistence | null;
   canalId: string | null;
   marks: Marks;
   replaceSpreader: Record<string, boolean>;
@@ -113,6 +116,7 @@ export const useChairside = create<ChairsideState>((set, get) => {
     caseId: null,
     tablet: NO_CASE,
     reviews: {},
+    persistence: null,
     canalId: null,
     marks: { finished: {} },
     replaceSpreader: {},
@@ -135,6 +139,9 @@ export const useChairside = create<ChairsideState>((set, get) => {
         await get().reload();
       }
       set({ phase: 'ready' });
+      if (id !== undefined && identity.source === 'server') {
+        void askToKeepData(id).then((persistence) => set({ persistence }));
+      }
       if (!loop && id !== undefined) {
         loop = new SyncLoop({
           deviceId: dev,
