@@ -15,7 +15,7 @@ export interface MeAnswer extends Me {
 
 /** What came back: a value, "not signed in", or no answer at all (offline, server down). */
 export type Answer<T> =
-  | { kind: 'ok'; value: T }
+  | { kind: 'ok'; value: T; etag?: string | null }
   | { kind: 'status'; status: number; error?: string; code?: string }
   | { kind: 'offline'; error: string };
 
@@ -28,7 +28,7 @@ async function call<T>(path: string, init?: RequestInit): Promise<Answer<T>> {
   }
   if (res.ok) {
     try {
-      return { kind: 'ok', value: (await res.json()) as T };
+      return { kind: 'ok', value: (await res.json()) as T, etag: res.headers.get('etag') };
     } catch {
       return { kind: 'status', status: res.status, error: 'The server sent something that is not JSON' };
     }
@@ -88,30 +88,11 @@ export function fetchCase(caseId: string): Promise<Answer<CaseAnswer>> {
   return call(`/api/cases/${encodeURIComponent(caseId)}`);
 }
 
-/** A conditional read of a case: `unchanged` (304) costs the server one query and sends no body. */
-export type CaseNews =
-  | { kind: 'unchanged' }
-  | { kind: 'changed'; etag: string | null; value: CaseAnswer }
-  | Exclude<Answer<never>, { kind: 'ok' }>;
-
-/** GET the case with If-None-Match `etag` (docs/sync-contract.md, "Reading back"). */
-export async function fetchCaseIfChanged(caseId: string, etag: string | null): Promise<CaseNews> {
-  let res: Response;
-  try {
-    res = await fetch(`/api/cases/${encodeURIComponent(caseId)}`, {
-      credentials: 'same-origin',
-      // The answer is never cached by the browser (no-store); the tablet revalidates itself.
-      cache: 'no-store',
-      headers: etag ? { 'If-None-Match': etag } : {},
-    });
-  } catch (e) {
-    return { kind: 'offline', error: e instanceof Error ? e.message : String(e) };
-  }
-  if (res.status === 304) return { kind: 'unchanged' };
-  if (!res.ok) return { kind: 'status', status: res.status };
-  try {
-    return { kind: 'changed', etag: res.headers.get('etag'), value: (await res.json()) as CaseAnswer };
-  } catch {
-    return { kind: 'status', status: res.status, error: 'The server sent something that is not JSON' };
-  }
+/**
+ * GET the case with If-None-Match `etag` (docs/sync-contract.md, "Reading back"): status 304
+ * means unchanged, and costs the server one query and no body. The browser never caches the
+ * answer (no-store), so the tablet's own tag is the only validator.
+ */
+export function fetchCaseIfChanged(caseId: string, etag: string | null): Promise<Answer<CaseAnswer>> {
+  return call(`/api/cases/${encodeURIComponent(caseId)}`, etag ? { headers: { 'If-None-Match': etag } } : undefined);
 }

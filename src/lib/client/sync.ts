@@ -1,5 +1,5 @@
 import { LIMITS, type CanalResult, type LogEvent } from '../rules/core';
-import { fetchCaseIfChanged, postSync, type Answer, type CaseNews, type ReviewStatus, type SyncAnswer } from './api';
+import { fetchCaseIfChanged, postSync, type Answer, type CaseAnswer, type ReviewStatus, type SyncAnswer } from './api';
 import { applyResults, importSynced, listQueued, putServerCanals, refuseOrphans, type StoredEvent } from './outbox';
 
 /** The server takes at most 500 events and 1 MB per batch (docs/sync-contract.md, limits.ts). */
@@ -100,12 +100,12 @@ export async function pullCase(
   userId: number,
   caseId: string,
   etag: string | null,
-  get: (caseId: string, etag: string | null) => Promise<CaseNews> = fetchCaseIfChanged,
+  get: (caseId: string, etag: string | null) => Promise<Answer<CaseAnswer>> = fetchCaseIfChanged,
 ): Promise<PullOutcome> {
   const news = await get(caseId, etag);
-  if (news.kind === 'unchanged') return news;
   if (news.kind === 'offline') return { kind: 'offline' };
   if (news.kind === 'status') {
+    if (news.status === 304) return { kind: 'unchanged' };
     if (news.status === 401) return { kind: 'signed-out' };
     // Not on the server yet (its opening still queued), or not this user's: nothing to merge.
     return news.status === 404 ? { kind: 'missing' } : { kind: 'error', status: news.status };
@@ -113,7 +113,7 @@ export async function pullCase(
   const { events, canals, reviewStatus } = news.value;
   if (events.length) await importSynced(userId, events);
   if (canals.length) await putServerCanals(userId, canals);
-  return { kind: 'changed', etag: news.etag, ...(reviewStatus ? { reviewStatus } : {}) };
+  return { kind: 'changed', etag: news.etag ?? null, ...(reviewStatus ? { reviewStatus } : {}) };
 }
 
 /** Back-off after failed attempts: 2 s, 4 s, 8 s … capped at 5 minutes, with jitter. */
