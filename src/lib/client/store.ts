@@ -334,8 +334,3 @@ useChairside.subscribe((s, prev) => {
   if (s.caseId !== prev.caseId && s.caseId !== null) void loop?.kick(false);
   else loop?.poke();
 });
-
-/** How many canal readings the store has asked the rules core for (tests watch it). */
-export function canalEvaluations(): number {
-  return memo.evaluations;
-}
