@@ -84,6 +84,8 @@ export interface CaseSummary {
 /** GET /api/cases/{caseId}: every event of the case and its canals' state. */
 export interface CaseDetail {
   caseId: string;
+  /** Added with the conditional pull; absent from older servers, so readers must not rely on it. */
+  reviewStatus?: ReviewStatus;
   events: LogEvent[];
   canals: CanalResult[];
 }

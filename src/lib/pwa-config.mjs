@@ -1,7 +1,7 @@
 // @ts-check
 // The chairside service worker: precaches the prerendered /chairside shell and its assets
 // so the tablet opens it with no network after one visit (docs/architecture.md, "Offline").
-// The island registers it with workbox-window (src/lib/client/pwa.ts) and offers a reload
+// The island registers it with the browser's own API (src/lib/client/pwa.ts) and offers a reload
 // when a new version waits ("prompt").
 import AstroPWA from '@vite-pwa/astro';
 

@@ -1,3 +1,4 @@
+import { randomUUID } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { anonymous, apiSignIn, DEMO, type ApiClient } from '../helpers/client';
 import { startServer, type TestServer } from '../helpers/server';
@@ -63,5 +64,63 @@ describe('GET /api/cases/{caseId} and the case page', () => {
   it('sends an anonymous visitor to sign in, and answers the API with 401', async () => {
     expect((await anonymous(server.baseUrl).fetch(`/cases/${molarCaseId}`)).status).toBe(302);
     expect((await anonymous(server.baseUrl).fetch(`/api/cases/${molarCaseId}`)).status).toBe(401);
+  });
+});
+
+describe('GET /api/cases/{caseId}, conditional', () => {
+  const note = (caseId: string, text: string) => ({
+    id: randomUUID(),
+    caseId,
+    type: 'note.added',
+    at: new Date().toISOString(),
+    data: { text },
+  });
+
+  it('answers 304 with no body while the ETag still names the case, and 200 with a new ETag once it changes', async () => {
+    const caseId = randomUUID();
+    const opened = {
+      id: randomUUID(),
+      caseId,
+      type: 'case.opened',
+      at: new Date().toISOString(),
+      data: { setting: 'block' },
+    };
+    expect((await as.mira!.post('/api/sync', { deviceId: 'tablet-etag', events: [opened] })).status).toBe(200);
+
+    const first = await as.mira!.fetch(`/api/cases/${caseId}`);
+    expect(first.status).toBe(200);
+    const etag = first.headers.get('etag');
+    expect(etag).toMatch(/^"[^"]+"$/);
+    expect(first.headers.get('cache-control')).toBe('no-store');
+    expect(((await first.json()) as { reviewStatus: string }).reviewStatus).toBe('open');
+
+    const same = await as.mira!.fetch(`/api/cases/${caseId}`, { headers: { 'If-None-Match': etag! } });
+    expect(same.status).toBe(304);
+    expect(await same.text()).toBe('');
+    expect(same.headers.get('etag')).toBe(etag);
+    expect(same.headers.get('cache-control')).toBe('no-store');
+    // A list of tags, or the weak form of ours, matches too (RFC 9110's weak comparison).
+    const listed = await as.mira!.fetch(`/api/cases/${caseId}`, { headers: { 'If-None-Match': `"x", W/${etag}` } });
+    expect(listed.status).toBe(304);
+
+    expect(
+      (await as.mira!.post('/api/sync', { deviceId: 'tablet-etag', events: [note(caseId, 'ETag check')] })).status,
+    ).toBe(200);
+    const changed = await as.mira!.fetch(`/api/cases/${caseId}`, { headers: { 'If-None-Match': etag! } });
+    expect(changed.status).toBe(200);
+    expect(changed.headers.get('etag')).not.toBe(etag);
+    expect(((await changed.json()) as { events: unknown[] }).events).toHaveLength(2);
+  });
+
+  it('answers 200 to a tablet that sends no If-None-Match, as before', async () => {
+    const res = await as.mira!.fetch(`/api/cases/${molarCaseId}`);
+    expect(res.status).toBe(200);
+    expect(res.headers.get('etag')).toBeTruthy();
+  });
+
+  it('gives no ETag and no hint to a reader who may not see the case', async () => {
+    const res = await as.tomas!.fetch(`/api/cases/${molarCaseId}`, { headers: { 'If-None-Match': '*' } });
+    expect(res.status).toBe(404);
+    expect(res.headers.get('etag')).toBeNull();
   });
 });

@@ -4,7 +4,7 @@ import { preparationLabel } from '../../lib/present/labels';
 import { newId } from '../../lib/client/ids';
 import { clampLength } from '../../lib/client/flow';
 import { useChairside } from '../../lib/client/store';
-import type { Setting } from '../../lib/client/events';
+import type { Setting } from '../../lib/client/derive';
 import { IsoChip } from '../shared/IsoChip';
 import { Answer, Answers, Chip, ChipGroup, StepCard } from './AnswerButtons';
 import { mm, RulerStrip } from './RulerStrip';

@@ -1,6 +1,6 @@
 import { useEffect, useMemo } from 'react';
 import type { LogEvent } from '../../lib/rules/core';
-import type { CanalInfo, Setting } from '../../lib/client/events';
+import type { CanalInfo, Setting } from '../../lib/client/derive';
 import { nextCard, type Card } from '../../lib/client/flow';
 import { useChairside } from '../../lib/client/store';
 import { shownResult } from '../../lib/client/views';
@@ -68,18 +68,14 @@ export function CanalStepper(props: {
 
   useEffect(() => keepAwake(), [canalId]);
 
+  const canal = props.canal;
   const shown = useMemo(
-    () => shownResult(rows, server, events, caseId, canalId),
-    [rows, server, events, caseId, canalId],
+    () => shownResult(rows, server, canal.reading.result, caseId, canalId),
+    [rows, server, canal.reading, caseId, canalId],
   );
   const findings = shown.result?.findings ?? [];
   const state = shown.result?.state ?? null;
-  // The cards work to the current CWL: the set-up's, or the latest correction.
-  const canal = state && state.cwlMm !== props.canal.cwlMm ? { ...props.canal, cwlMm: state.cwlMm } : props.canal;
-  const card = nextCard(events, canal.canalId, {
-    setting,
-    cwlMm: canal.cwlMm,
-    complete: state?.complete ?? false,
+  const card = nextCard(canal.reading, {
     findingCodes: findings.map((f) => f.code),
     compactionFinished: finished,
     replaceSpreader,
@@ -112,7 +108,7 @@ export function CanalStepper(props: {
         )}
         <FindingList findings={findings} source={shown.source} />
         <CwlCorrection canalId={canal.canalId} cwlMm={canal.cwlMm} />
-        <CanalTimeline canalId={canal.canalId} events={events} />
+        <CanalTimeline canal={canal} />
       </div>
       <aside
         aria-label={`Diagram of canal ${canal.name}`}

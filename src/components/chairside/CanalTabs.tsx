@@ -1,4 +1,4 @@
-import type { CanalInfo } from '../../lib/client/events';
+import type { CanalInfo } from '../../lib/client/derive';
 import { canalStatusLabel } from '../../lib/present/labels';
 
 /** Canals as large tabs with a small status word, plus "Add canal" and "Finish tooth". */

@@ -1,19 +1,20 @@
 import { useMemo, useState } from 'react';
-import type { LogEvent } from '../../lib/rules/core';
+import type { CanalInfo } from '../../lib/client/derive';
 import { describeEvent } from '../../lib/present/events';
 import { DEFAULT_CLINIC, formatInstant } from '../../lib/present/format';
-import { liveEvents } from '../../lib/client/events';
 import { useChairside } from '../../lib/client/store';
 
 /**
  * The canal's timeline. An answer is never edited: withdrawing it records `event.voided`,
  * and the stepper goes back to that card so it can be answered again.
  */
-export function CanalTimeline({ canalId, events }: { canalId: string; events: LogEvent[] }) {
+export function CanalTimeline({ canal }: { canal: CanalInfo }) {
+  const { canalId, reading } = canal;
   const [open, setOpen] = useState(false);
   const record = useChairside((s) => s.record);
   const clinic = useChairside((s) => s.identity.user?.clinic) ?? DEFAULT_CLINIC;
-  const list = useMemo(() => liveEvents(events).filter((e) => e.canalId === canalId), [events, canalId]);
+  // The events that count, as the rules core read them: the canal's own, without case-level ones.
+  const list = useMemo(() => reading.counted.filter((e) => e.canalId === canalId), [reading, canalId]);
   return (
     <section aria-label="Timeline" className="mt-4">
       <button

@@ -2,7 +2,7 @@ import { useEffect, useMemo, useState } from 'react';
 import { SETTING_LABEL } from '../../lib/present/labels';
 import { DEFAULT_CLINIC, formatInstant } from '../../lib/present/format';
 import { fetchCases, type CaseSummary } from '../../lib/client/api';
-import { casesIn } from '../../lib/client/events';
+import { casesOnTablet } from '../../lib/client/derive';
 import { useChairside } from '../../lib/client/store';
 import { Answer, Answers, StepCard } from './AnswerButtons';
 
@@ -12,7 +12,7 @@ export function CaseList({ onNew }: { onNew: () => void }) {
   const openCase = useChairside((s) => s.openCase);
   const restoreCase = useChairside((s) => s.restoreCase);
   const clinic = useChairside((s) => s.identity.user?.clinic) ?? DEFAULT_CLINIC;
-  const cases = useMemo(() => casesIn(rows.filter((r) => r.state !== 'rejected').map((r) => r.event)), [rows]);
+  const cases = useMemo(() => casesOnTablet(rows), [rows]);
   const [remote, setRemote] = useState<CaseSummary[]>([]);
   useEffect(() => {
     let live = true;

@@ -1,6 +1,5 @@
-import { useMemo, useState } from 'react';
-import { evaluateCanal, type LogEvent } from '../../lib/rules/core';
-import type { CanalInfo, CaseInfo } from '../../lib/client/events';
+import { useState } from 'react';
+import type { CaseInfo, TabletCase } from '../../lib/client/derive';
 import { useChairside } from '../../lib/client/store';
 import { CanalPicker } from './CanalPicker';
 import { CanalSetup } from './CanalSetup';
@@ -9,18 +8,16 @@ import { CanalTabs } from './CanalTabs';
 import { Summary } from './Summary';
 
 /** One open case: canal tabs, and below them the canal stepper, the canal set-up or the finishing card. */
-export function CaseView(props: { info: CaseInfo; canals: CanalInfo[]; events: LogEvent[] }) {
-  const { info, canals, events } = props;
+export function CaseView(props: { info: CaseInfo; tablet: TabletCase }) {
+  const { info, tablet } = props;
+  const { canals, events } = tablet;
   const canalId = useChairside((s) => s.canalId);
   const selectCanal = useChairside((s) => s.selectCanal);
   const [view, setView] = useState<'canal' | 'add' | 'finish'>(canals.length === 0 ? 'add' : 'canal');
   const [queue, setQueue] = useState<string[]>([]);
   const [firstNew, setFirstNew] = useState<string | null>(null);
 
-  const statuses = useMemo(
-    () => Object.fromEntries(canals.map((c) => [c.canalId, evaluateCanal(c.canalId, events)?.state.status])),
-    [canals, events],
-  );
+  const statuses = Object.fromEntries(canals.map((c) => [c.canalId, c.reading.result.state.status]));
   const selected = canals.find((c) => c.canalId === canalId) ?? canals[0] ?? null;
   const showAdd = view === 'add' || canals.length === 0;
 
@@ -60,7 +57,7 @@ export function CaseView(props: { info: CaseInfo; canals: CanalInfo[]; events: L
       />
     );
   } else if (view === 'finish') {
-    body = <Summary info={info} canals={canals} events={events} />;
+    body = <Summary info={info} tablet={tablet} />;
   } else if (selected) {
     body = (
       <CanalStepper

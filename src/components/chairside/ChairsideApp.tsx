@@ -1,9 +1,7 @@
-import { useEffect, useMemo, useState } from 'react';
+import { useEffect, useState } from 'react';
 import { SAFETY_LINE } from '../../lib/rules/core';
-import { canalsIn, casesIn } from '../../lib/client/events';
 import { registerServiceWorker } from '../../lib/client/pwa';
 import { useChairside } from '../../lib/client/store';
-import { caseEvents } from '../../lib/client/views';
 import { StepCard } from './AnswerButtons';
 import { CaseList } from './CaseList';
 import { CaseView } from './CaseView';
@@ -17,9 +15,10 @@ import { UndoStrip } from './UndoStrip';
 export default function ChairsideApp() {
   const phase = useChairside((s) => s.phase);
   const identity = useChairside((s) => s.identity);
-  const rows = useChairside((s) => s.rows);
   const caseId = useChairside((s) => s.caseId);
+  const tablet = useChairside((s) => s.tablet);
   const error = useChairside((s) => s.error);
+  const persistence = useChairside((s) => s.persistence);
   const openCase = useChairside((s) => s.openCase);
   const [creating, setCreating] = useState(false);
   const [signingOut, setSigningOut] = useState(false);
@@ -30,9 +29,7 @@ export default function ChairsideApp() {
     registerServiceWorker((accept) => setUpdate(() => accept));
   }, []);
 
-  const events = useMemo(() => caseEvents(rows, caseId), [rows, caseId]);
-  const info = useMemo(() => casesIn(events).find((c) => c.caseId === caseId) ?? null, [events, caseId]);
-  const canals = useMemo(() => (caseId ? canalsIn(events, caseId) : []), [events, caseId]);
+  const info = tablet.caseId === caseId ? tablet.info : null;
 
   let body;
   if (phase === 'loading') body = <p className="text-lg">Opening the log on this tablet…</p>;
@@ -64,7 +61,7 @@ export default function ChairsideApp() {
     );
   } else if (creating && !caseId) body = <OpenCase onCancel={() => setCreating(false)} />;
   else if (!caseId || !info) body = <CaseList onNew={() => setCreating(true)} />;
-  else body = <CaseView key={caseId} info={info} canals={canals} events={events} />;
+  else body = <CaseView key={caseId} info={info} tablet={tablet} />;
 
   return (
     <div className="min-h-screen flex flex-col">
@@ -101,6 +98,12 @@ export default function ChairsideApp() {
         {error && (
           <p role="alert" className="mx-3 mt-3 p-3 border-2 border-stop bg-white text-stop font-bold">
             {error}
+          </p>
+        )}
+        {persistence === 'refused' && identity.user && (
+          <p className="mx-3 mt-3 text-base border-l-4 border-caution pl-3" data-testid="storage-note">
+            This browser has not promised to keep Coneline&apos;s data: if the tablet runs short of storage it may clear
+            records that are not yet sent. Sync soon.
           </p>
         )}
         <div className="p-3">{body}</div>

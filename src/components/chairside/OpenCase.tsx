@@ -2,7 +2,7 @@ import { useState } from 'react';
 import { fdiToUniversal, toothName } from '../../lib/rules/core';
 import { newId } from '../../lib/client/ids';
 import { useChairside } from '../../lib/client/store';
-import type { Setting } from '../../lib/client/events';
+import type { Setting } from '../../lib/client/derive';
 import { Answer, Answers, Chip, StepCard } from './AnswerButtons';
 
 const QUADRANTS: Record<number, string> = {

@@ -1,7 +1,7 @@
+import { useState } from 'react';
 import type { EventData, EventType } from '../../lib/contract';
-import { useMemo, useState } from 'react';
-import type { LogEvent } from '../../lib/rules/core';
-import { field, liveEvents, type CanalInfo, type CaseInfo } from '../../lib/client/events';
+import type { EventOf } from '../../lib/rules/core';
+import type { CaseInfo, TabletCase } from '../../lib/client/derive';
 import { useChairside } from '../../lib/client/store';
 import { shownResult } from '../../lib/client/views';
 import { CanalDiagram } from '../shared/CanalDiagram';
@@ -14,17 +14,18 @@ const MATERIALS = {
 };
 
 /** Finishing the tooth: access restoration, post-op radiograph, each canal's findings, submit. */
-export function Summary(props: { info: CaseInfo; canals: CanalInfo[]; events: LogEvent[] }) {
-  const { info, canals, events } = props;
+export function Summary(props: { info: CaseInfo; tablet: TabletCase }) {
+  const { info } = props;
+  const { canals, caseLevel } = props.tablet;
   const rows = useChairside((s) => s.rows);
   const server = useChairside((s) => s.server);
   const record = useChairside((s) => s.record);
   const [kind, setKind] = useState<'temporary' | 'permanent'>('temporary');
   const [material, setMaterial] = useState<string | undefined>();
-  const live = useMemo(() => liveEvents(events), [events]);
-  const restored = live.find((e) => e.type === 'access.restored' && !e.canalId);
-  const postOp = live.some((e) => e.type === 'radiograph.taken' && field(e, 'purpose') === 'post-op');
-  const submitted = live.some((e) => e.type === 'case.submitted');
+  // Case-level events that count, as the rules core reads them.
+  const restored = caseLevel.find((e): e is EventOf<'access.restored'> => e.type === 'access.restored');
+  const postOp = caseLevel.some((e) => e.type === 'radiograph.taken' && e.data.purpose === 'post-op');
+  const submitted = info.submitted;
   const tooth = info.setting !== 'block';
   const rec = <T extends EventType>(type: T, data: EventData<T>, label: string) => record(type, data, { label });
 
@@ -72,8 +73,8 @@ export function Summary(props: { info: CaseInfo; canals: CanalInfo[]; events: Lo
         </StepCard>
       ) : (
         <p className="text-lg">
-          ✓ Access restored: {String(field(restored, 'kind'))}
-          {field(restored, 'material') ? `, ${String(field(restored, 'material'))}` : ''}
+          ✓ Access restored: {restored.data.kind}
+          {restored.data.material ? `, ${restored.data.material}` : ''}
         </p>
       )}
       {tooth &&
@@ -93,7 +94,7 @@ export function Summary(props: { info: CaseInfo; canals: CanalInfo[]; events: Lo
         ))}
       <div className="grid gap-4 landscape:grid-cols-2">
         {canals.map((c) => {
-          const shown = shownResult(rows, server, events, info.caseId, c.canalId);
+          const shown = shownResult(rows, server, c.reading.result, info.caseId, c.canalId);
           return (
             <section
               key={c.canalId}

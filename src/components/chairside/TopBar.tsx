@@ -1,9 +1,15 @@
 import { fdiToUniversal, toothName } from '../../lib/rules/core';
 import { DemoBanner } from '../shared/DemoBanner';
 import { SETTING_LABEL } from '../../lib/present/labels';
-import type { CaseInfo } from '../../lib/client/events';
+import type { CaseInfo } from '../../lib/client/derive';
 import { useChairside } from '../../lib/client/store';
 import { SyncBadge } from './SyncBadge';
+
+// Only the attending's decisions are news on the tablet; open and submitted it knows itself.
+const REVIEW_WORD: Record<string, string | undefined> = {
+  approved: 'approved by the attending',
+  returned: 'returned for changes',
+};
 
 /** The Coneline mark, the tooth and setting, the sync state, and the way out; the demo line above them. */
 export function TopBar(props: { info: CaseInfo | null; onCases: () => void; onSignOut: () => void }) {
@@ -11,6 +17,7 @@ export function TopBar(props: { info: CaseInfo | null; onCases: () => void; onSi
   const showUniversal = useChairside((s) => s.showUniversal);
   const toggleUniversal = useChairside((s) => s.toggleUniversal);
   const demo = useChairside((s) => s.identity.demo);
+  const review = useChairside((s) => (props.info ? s.reviews[props.info.caseId] : undefined));
   const info = props.info;
   return (
     <header className="bg-white border-b-2 border-line">
@@ -32,6 +39,7 @@ export function TopBar(props: { info: CaseInfo | null; onCases: () => void; onSi
                 · {SETTING_LABEL[info.setting]}
                 {info.tooth ? ` · ${toothName(info.tooth)}` : ''}
                 {info.chartRef ? ` · chart ${info.chartRef}` : ''}
+                {review && REVIEW_WORD[review] ? ` · ${REVIEW_WORD[review]}` : ''}
               </span>
             </p>
             {info.tooth && (

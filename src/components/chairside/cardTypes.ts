@@ -1,6 +1,6 @@
 import type { EventData, EventType } from '../../lib/contract';
 import type { CanalState } from '../../lib/rules/core';
-import type { CanalInfo, Setting } from '../../lib/client/events';
+import type { CanalInfo, Setting } from '../../lib/client/derive';
 
 /** What every step card gets: the canal, its state, and a way to record an answer. */
 export interface CardProps {

@@ -2,6 +2,7 @@ import type { CaseDetail, CaseSummary, Clinic, MeAnswer, Role, SyncAnswer } from
 import type { LogEvent } from '../rules/core';
 
 export type { CaseSummary, MeAnswer, SyncAnswer };
+export type { ReviewStatus } from '../contract';
 
 /** The signed-in user as the tablet keeps them. */
 export interface Me {
@@ -15,7 +16,7 @@ export interface Me {
 
 /** What came back: a value, "not signed in", or no answer at all (offline, server down). */
 export type Answer<T> =
-  | { kind: 'ok'; value: T }
+  | { kind: 'ok'; value: T; etag?: string | null }
   | { kind: 'status'; status: number; error?: string; code?: string }
   | { kind: 'offline'; error: string };
 
@@ -28,7 +29,7 @@ async function call<T>(path: string, init?: RequestInit): Promise<Answer<T>> {
   }
   if (res.ok) {
     try {
-      return { kind: 'ok', value: (await res.json()) as T };
+      return { kind: 'ok', value: (await res.json()) as T, etag: res.headers.get('etag') };
     } catch {
       return { kind: 'status', status: res.status, error: 'The server sent something that is not JSON' };
     }
@@ -59,6 +60,18 @@ export function fetchCases(): Promise<Answer<{ cases: CaseSummary[] }>> {
   return call('/api/cases');
 }
 
-export function fetchCase(caseId: string): Promise<Answer<CaseDetail>> {
+/** What GET /api/cases/{caseId} answers (reviewStatus since the conditional GET; absent from older servers). */
+export type CaseAnswer = CaseDetail;
+
+export function fetchCase(caseId: string): Promise<Answer<CaseAnswer>> {
   return call(`/api/cases/${encodeURIComponent(caseId)}`);
+}
+
+/**
+ * GET the case with If-None-Match `etag` (docs/sync-contract.md, "Reading back"): status 304
+ * means unchanged, and costs the server one query and no body. The browser never caches the
+ * answer (no-store), so the tablet's own tag is the only validator.
+ */
+export function fetchCaseIfChanged(caseId: string, etag: string | null): Promise<Answer<CaseAnswer>> {
+  return call(`/api/cases/${encodeURIComponent(caseId)}`, etag ? { headers: { 'If-None-Match': etag } } : undefined);
 }

@@ -10,7 +10,8 @@ import { promisifyRequest, type UseStore } from 'idb-keyval';
  * hand idb-keyval a custom UseStore (which also lets writes ask for strict durability).
  */
 const DB_NAME = 'coneline-chairside';
-const DB_VERSION = 1;
+// 1: events, server, meta. 2: every `events` row carries `kind` ('event'; image blobs later).
+const DB_VERSION = 2;
 export const STORES = ['events', 'server', 'meta'] as const;
 export type StoreName = (typeof STORES)[number];
 
@@ -19,10 +20,14 @@ let dbp: Promise<IDBDatabase> | null = null;
 function openDb(): Promise<IDBDatabase> {
   if (!dbp) {
     const req = indexedDB.open(DB_NAME, DB_VERSION);
-    req.onupgradeneeded = () => {
+    req.onupgradeneeded = (ev) => {
       for (const name of STORES) {
         if (!req.result.objectStoreNames.contains(name)) req.result.createObjectStore(name);
       }
+      // In the upgrade transaction itself: the database opens only once every row is marked,
+      // so no code of this version ever sees an outbox row without its kind.
+      if (ev.oldVersion >= 1 && ev.oldVersion < 2 && req.transaction)
+        markEventRows(req.transaction.objectStore('events'));
     };
     dbp = promisifyRequest(req).then((db) => {
       // Another tab upgrading or deleting the database: let go so it can proceed.
@@ -37,6 +42,18 @@ function openDb(): Promise<IDBDatabase> {
     });
   }
   return dbp;
+}
+
+/** Version 1 rows were all events and had no `kind`: say so on each (unsent ones included). */
+function markEventRows(store: IDBObjectStore): void {
+  const cursor = store.openCursor();
+  cursor.onsuccess = () => {
+    const c = cursor.result;
+    if (!c) return;
+    const row = c.value as Record<string, unknown> | undefined;
+    if (row && row.kind === undefined) c.update({ ...row, kind: 'event' });
+    c.continue();
+  };
 }
 
 /**

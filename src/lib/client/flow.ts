@@ -1,10 +1,11 @@
-import { field, liveEvents, type FlowEvent, type Setting } from './events';
+import type { CanalReading, LogEvent } from '../rules/core';
 
 /**
  * Which card the stepper shows next for a canal (docs/architecture.md, "The tablet").
- * Pure: it reads the canal's events and a little context and never judges a value — the
- * rules core does that. Steps are found by what has been recorded, not by position, so a
- * canal restored from the server or recorded out of order still lands on the right card.
+ * Pure: it reads what the rules core derived for the canal — the events that count and its
+ * CanalState — and never recounts or judges a value itself. Steps are found by what has
+ * been recorded, not by position, so a canal restored from the server or recorded out of
+ * order still lands on the right card.
  */
 export type Card =
   | { kind: 'seat' }
@@ -25,11 +26,8 @@ export type Card =
 
 export type CardKind = Card['kind'];
 
+/** What only the tablet knows: the shown findings and the student's choices. */
 export interface FlowContext {
-  setting: Setting;
-  cwlMm: number;
-  /** From the rules core's CanalState: the spreader no longer passes the coronal third. */
-  complete: boolean;
   /** Codes of the canal's open findings (local or server). */
   findingCodes: string[];
   /** The student tapped "Finish compaction" (kept on the tablet; no event records it). */
@@ -50,15 +48,21 @@ export function clampLength(mm: number): number {
 
 const COMPACTION = new Set(['spreader.placed', 'accessory.placed', 'accessory.removed']);
 
-/** The next card for one canal, from all the case's events (any order, voids included). */
-export function nextCard(allEvents: FlowEvent[], canalId: string, ctx: FlowContext): Card {
-  const live = liveEvents(allEvents).filter((e) => e.canalId === canalId);
-  const tooth = ctx.setting !== 'block';
-  const cwl = ctx.cwlMm;
-  const has = (type: string, pred: (e: FlowEvent) => boolean = () => true) =>
+/** A field of an event's data (parseEvent checked its type). */
+function field<T>(e: LogEvent | undefined, key: string): T | undefined {
+  return (e?.data as Record<string, unknown> | undefined)?.[key] as T | undefined;
+}
+
+/** The next card for one canal, from the rules core's reading of it (readCanal). */
+export function nextCard(reading: CanalReading, ctx: FlowContext): Card {
+  const { state } = reading.result;
+  const live = reading.counted.filter((e) => e.canalId === reading.result.canalId);
+  const tooth = state.setting !== 'block';
+  const cwl = state.cwlMm;
+  const has = (type: string, pred: (e: LogEvent) => boolean = () => true) =>
     live.some((e) => e.type === type && pred(e));
-  const radiograph = (purpose: string) => (e: FlowEvent) => field(e, 'purpose') === purpose;
-  const indexOf = (e: FlowEvent | undefined) => (e ? live.indexOf(e) : -1);
+  const radiograph = (purpose: string) => (e: LogEvent) => field(e, 'purpose') === purpose;
+  const indexOf = (e: LogEvent | undefined) => (e ? live.indexOf(e) : -1);
 
   if (!has('seat.checked')) return { kind: 'seat' };
   if (!has('taper.checked')) return { kind: 'taper', centre: clampLength(cwl - 1) };
@@ -84,7 +88,7 @@ export function nextCard(allEvents: FlowEvent[], canalId: string, ctx: FlowConte
 
   const steps = live.filter((e) => COMPACTION.has(e.type));
   const lastStep = steps[steps.length - 1];
-  const afterCompaction = (e: FlowEvent) => indexOf(e) > indexOf(lastStep);
+  const afterCompaction = (e: LogEvent) => indexOf(e) > indexOf(lastStep);
   const fillStarted =
     ctx.compactionFinished ||
     has('fill.assessed') ||
@@ -92,18 +96,14 @@ export function nextCard(allEvents: FlowEvent[], canalId: string, ctx: FlowConte
     live.some((e) => e.type === 'radiograph.taken' && field(e, 'purpose') === 'fill-check' && afterCompaction(e));
 
   if (!fillStarted) {
-    const removed = new Set(
-      steps.filter((e) => e.type === 'accessory.removed').map((e) => field<string>(e, 'eventId')),
-    );
-    const kept = steps.filter((e) => e.type === 'accessory.placed' && !removed.has(e.id)).length;
-    const spreaders = steps.filter((e) => e.type === 'spreader.placed');
-    const lastDepth = field<number>(spreaders[spreaders.length - 1], 'depthMm');
-    const cycle = kept + 1;
+    // Kept cones and depths are the rules core's (CanalState), not a recount.
+    const lastDepth = state.spreaderDepths[state.spreaderDepths.length - 1];
+    const cycle = state.accessoryCones + 1;
     const spreaderCard = (): Card => ({
       kind: 'spreader',
       cycle,
       centre: clampLength(lastDepth ?? cwl - 2),
-      complete: ctx.complete,
+      complete: state.complete,
     });
     if (!lastStep) return spreaderCard();
     if (lastStep.type === 'spreader.placed') {

@@ -11,10 +11,10 @@ import { useStore, userRange } from './db';
  */
 export type EventState = 'queued' | 'synced' | 'rejected';
 
-export interface StoredEvent {
+/** What every outbox row has, whatever it carries. */
+interface OutboxRowBase {
   userId: number;
-  event: LogEvent;
-  /** Recording order on this tablet (the sync sends events in this order). */
+  /** Recording order on this tablet (the sync sends in this order). */
   seq: number;
   state: EventState;
   error?: string;
@@ -23,6 +23,30 @@ export interface StoredEvent {
   /** When the server first asked that (ISO instant); absent on rows from before the cap. */
   firstRetryAt?: string;
 }
+
+/** An event, sent as JSON through POST /api/sync; keyed `[userId, event.id]`. */
+export interface StoredEvent extends OutboxRowBase {
+  kind: 'event';
+  event: LogEvent;
+}
+
+/**
+ * An image (a radiograph) waiting to be uploaded, with the id of the event that names it;
+ * keyed `[userId, 'blob', blobId]` so it can never meet an event's key. Declared so the
+ * outbox's shape holds it; nothing writes one yet (uploads come later).
+ */
+export interface StoredBlob extends OutboxRowBase {
+  kind: 'blob';
+  blobId: string;
+  /** The `radiograph.taken` this image belongs to (sent first, as an event). */
+  eventId: string;
+  blob: Blob;
+  contentType: string;
+  bytes: number;
+}
+
+/** One row of the outbox store (`events`): since IndexedDB version 2 every row says its kind. */
+export type OutboxRow = StoredEvent | StoredBlob;
 
 /**
  * How long the tablet keeps sending an event the server keeps asking for again. An event
@@ -50,16 +74,21 @@ function nextSeq(): number {
 
 /** Record one event for this user; resolves once it is durably on disk. */
 export async function putEvent(userId: number, event: LogEvent): Promise<StoredEvent> {
-  const row: StoredEvent = { userId, event, seq: nextSeq(), state: 'queued' };
+  const row: StoredEvent = { kind: 'event', userId, event, seq: nextSeq(), state: 'queued' };
   await set([userId, event.id], row, events());
   return row;
 }
 
-/** Every event of this user, in recording order. */
-export function listEvents(userId: number): Promise<StoredEvent[]> {
+/** Every outbox row of this user, of any kind, in recording order. */
+export function listRows(userId: number): Promise<OutboxRow[]> {
   return eventsRelaxed()('readonly', (store) =>
-    promisifyRequest(store.getAll(userRange(userId)) as IDBRequest<StoredEvent[]>),
+    promisifyRequest(store.getAll(userRange(userId)) as IDBRequest<OutboxRow[]>),
   ).then((rows) => rows.sort((a, b) => a.seq - b.seq));
+}
+
+/** Every event of this user, in recording order. */
+export async function listEvents(userId: number): Promise<StoredEvent[]> {
+  return (await listRows(userId)).filter((r): r is StoredEvent => r.kind === 'event');
 }
 
 /** The outbox: this user's queued events in recording order, at most `limit`. */
@@ -139,7 +168,7 @@ export function importSynced(userId: number, list: LogEvent[]): Promise<void> {
       const req = store.get([userId, event.id]) as IDBRequest<StoredEvent | undefined>;
       req.onsuccess = () => {
         if (req.result) return; // never overwrite what this tablet recorded
-        const row: StoredEvent = { userId, event, seq: Date.parse(event.at) * 1000, state: 'synced' };
+        const row: StoredEvent = { kind: 'event', userId, event, seq: Date.parse(event.at) * 1000, state: 'synced' };
         store.put(row, [userId, event.id]);
       };
     }
@@ -189,7 +218,7 @@ export function delMeta(key: IDBValidKey): Promise<void> {
  * refused ones whose reason they have not yet seen and dismissed.
  */
 export async function clearUserIfSynced(userId: number): Promise<boolean> {
-  const unsettled = (await listEvents(userId)).some((r) => r.state === 'queued' || r.state === 'rejected');
+  const unsettled = (await listRows(userId)).some((r) => r.state === 'queued' || r.state === 'rejected');
   if (unsettled) return false;
   const range = userRange(userId);
   await events()('readwrite', (store) => {

@@ -1,28 +1,30 @@
-import type { Workbox } from 'workbox-window';
-
 /**
  * Register the service worker (built by @vite-pwa/astro with registerType "prompt") and
  * tell the island when a new version is waiting; `accept()` activates it and reloads.
- * workbox-window is loaded by dynamic import after the island has rendered: no tap needs it,
- * so it stays out of the first paint's budget (docs/architecture.md, "Chairside budget").
+ * The browser's own API, not workbox-window: the island's JavaScript budget (≤ 100 KB
+ * gzipped) has no room for its 2 KB, and this is all of it the island used.
  */
 export function registerServiceWorker(onUpdate: (accept: () => void) => void): void {
   if (!('serviceWorker' in navigator) || !window.isSecureContext) return;
-  void import('workbox-window')
-    .then(({ Workbox }) => start(new Workbox('/sw.js', { scope: '/' }), onUpdate))
-    .catch(() => {
-      // Not loaded (offline before the first precache): the island works online, and the next visit registers.
-    });
-}
-
-function start(wb: Workbox, onUpdate: (accept: () => void) => void): void {
-  wb.addEventListener('waiting', () => {
+  const sw = navigator.serviceWorker;
+  const offer = (waiting: ServiceWorker) =>
     onUpdate(() => {
-      wb.addEventListener('controlling', () => window.location.reload());
-      wb.messageSkipWaiting();
+      sw.addEventListener('controllerchange', () => window.location.reload());
+      // The generated worker skips waiting on this message (vite-plugin-pwa, prompt mode).
+      waiting.postMessage({ type: 'SKIP_WAITING' });
     });
-  });
-  void wb.register().catch(() => {
-    // No worker (e.g. a dev server): the island still works online.
-  });
+  sw.register('/sw.js', { scope: '/' })
+    .then((reg) => {
+      // Without a controller an installed worker is the first one, not an update.
+      if (reg.waiting && sw.controller) offer(reg.waiting);
+      reg.addEventListener('updatefound', () => {
+        const next = reg.installing;
+        next?.addEventListener('statechange', () => {
+          if (next.state === 'installed' && sw.controller) offer(next);
+        });
+      });
+    })
+    .catch(() => {
+      // No worker (e.g. a dev server): the island still works online.
+    });
 }

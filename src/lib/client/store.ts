@@ -1,7 +1,8 @@
 import { create } from 'zustand';
 import { serverKnows, type EventData, type EventType } from '../contract';
 import { parseEvent, type LogEvent } from '../rules/core';
-import { fetchCase } from './api';
+import { fetchCase, type ReviewStatus } from './api';
+import { CanalMemo, deriveCase, NO_CASE, type TabletCase } from './derive';
 import { newId } from './ids';
 import {
   dismissRejected,
@@ -16,6 +17,7 @@ import {
   type StoredEvent,
 } from './outbox';
 import { deviceId as loadDeviceId, leave, resolveIdentity, type Identity } from './session';
+import { askToKeepData, type Persistence } from './storage';
 import { SyncLoop, type SyncStatus } from './syncLoop';
 import { limitRefusal } from './views';
 
@@ -53,6 +55,12 @@ export interface ChairsideState {
   rows: StoredEvent[];
   server: Record<string, ServerCanal>;
   caseId: string | null;
+  /** The open case as the rules core reads it; recomputed when `rows` or `caseId` change, per canal only where its events did. */
+  tablet: TabletCase;
+  /** Each case's review status as the server last answered it (pulled while the case is open). */
+  reviews: Record<string, ReviewStatus>;
+  /** Whether the browser keeps the outbox under storage pressure (asked after sign-in). */
+  persistence: Persistence | null;
   canalId: string | null;
   marks: Marks;
   replaceSpreader: Record<string, boolean>;
@@ -108,6 +116,9 @@ export const useChairside = create<ChairsideState>((set, get) => {
     rows: [],
     server: {},
     caseId: null,
+    tablet: NO_CASE,
+    reviews: {},
+    persistence: null,
     canalId: null,
     marks: { finished: {} },
     replaceSpreader: {},
@@ -125,17 +136,37 @@ export const useChairside = create<ChairsideState>((set, get) => {
       if (id !== undefined) {
         const current = await getMeta<{ caseId: string | null; canalId: string | null }>([id, 'current']);
         const marks = (await getMeta<Marks>([id, 'marks'])) ?? { finished: {} };
-        set({ caseId: current?.caseId ?? null, canalId: current?.canalId ?? null, marks });
+        const reviews = (await getMeta<Record<string, ReviewStatus>>([id, 'reviews'])) ?? {};
+        set({ caseId: current?.caseId ?? null, canalId: current?.canalId ?? null, marks, reviews });
         await get().reload();
       }
       set({ phase: 'ready' });
+      if (id !== undefined && identity.source === 'server') {
+        void askToKeepData(id).then((persistence) => set({ persistence }));
+      }
       if (!loop && id !== undefined) {
         loop = new SyncLoop({
           deviceId: dev,
           userId: uid,
+          // From the rows in memory: deciding whether there is work reads no IndexedDB.
+          pending: () => get().rows.filter((r) => r.state === 'queued').length,
+          pullCaseId: () => {
+            const { caseId, rows } = get();
+            // A case the server has seen: one of its events was answered stored.
+            return caseId && rows.some((r) => r.event.caseId === caseId && r.state === 'synced') ? caseId : null;
+          },
           onStatus: (s) => set({ sync: { ...s } }),
           onOutcome: (o) => {
             if (o.kind === 'signed-out') set({ identity: { ...get().identity, signedOut: true } });
+            void get().reload();
+          },
+          onPulled: (caseId, o) => {
+            if (o.kind !== 'changed') return;
+            if (o.reviewStatus && get().reviews[caseId] !== o.reviewStatus) {
+              const reviews = { ...get().reviews, [caseId]: o.reviewStatus };
+              set({ reviews });
+              void setMeta([id, 'reviews'], reviews);
+            }
             void get().reload();
           },
         });
@@ -298,4 +329,15 @@ export const useChairside = create<ChairsideState>((set, get) => {
       await leave(id, get().rows.filter((r) => r.state === 'queued').length);
     },
   };
+});
+
+// The open case is derived here, once per change of the log or of the case, for every
+// component: each canal is read by the rules core only when its own inputs changed.
+const memo = new CanalMemo();
+useChairside.subscribe((s, prev) => {
+  if (s.rows === prev.rows && s.caseId === prev.caseId) return;
+  useChairside.setState({ tablet: deriveCase(s.rows, s.caseId, memo) });
+  // A case just opened is pulled at once; otherwise the loop only re-checks whether it has work.
+  if (s.caseId !== prev.caseId && s.caseId !== null) void loop?.kick(false);
+  else loop?.poke();
 });

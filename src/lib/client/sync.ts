@@ -1,6 +1,6 @@
 import { LIMITS, type CanalResult, type LogEvent } from '../rules/core';
-import { fetchMe, postSync, type Answer, type Me, type SyncAnswer } from './api';
-import { applyResults, listQueued, putServerCanals, refuseOrphans, type StoredEvent } from './outbox';
+import { fetchCaseIfChanged, postSync, type Answer, type CaseAnswer, type ReviewStatus, type SyncAnswer } from './api';
+import { applyResults, importSynced, listQueued, putServerCanals, refuseOrphans, type StoredEvent } from './outbox';
 
 /** The server takes at most 500 events and 1 MB per batch (docs/sync-contract.md, limits.ts). */
 export const MAX_BATCH_EVENTS: number = LIMITS.eventsPerBatch;
@@ -10,16 +10,15 @@ export type SyncOutcome =
   | { kind: 'done'; sent: number; stored: number; rejected: number; retry: number; canals: CanalResult[] }
   | { kind: 'offline' }
   | { kind: 'signed-out' }
-  | { kind: 'other-user'; signedInId?: number }
+  | { kind: 'other-user' }
   | { kind: 'error'; status: number; error?: string };
 
 export interface SyncDeps {
-  whoIsSignedIn: () => Promise<Answer<Me>>;
   post: (deviceId: string, events: LogEvent[], userId: number) => Promise<Answer<SyncAnswer>>;
   /** The tablet's clock (the retry cap counts days by it). */
   now?: () => Date;
 }
-const realDeps: SyncDeps = { whoIsSignedIn: fetchMe, post: postSync };
+const realDeps: SyncDeps = { post: postSync };
 
 /** Split the outbox, in recording order, into batches the server accepts. */
 export function toBatches(rows: StoredEvent[], maxEvents = MAX_BATCH_EVENTS, maxBytes = MAX_BATCH_BYTES): LogEvent[][] {
@@ -41,18 +40,14 @@ export function toBatches(rows: StoredEvent[], maxEvents = MAX_BATCH_EVENTS, max
 }
 
 /**
- * Send this user's outbox once. Before sending it asks the server who is signed in and
- * sends nothing unless that is the outbox's owner: events recorded by one user never go
- * out under another's session.
+ * Send this user's outbox once. Every batch names the outbox's owner (`userId`), and the
+ * server stores nothing of a batch whose owner is not the signed-in user (403 `other-user`):
+ * events recorded by one user never go out under another's session, with no separate
+ * round trip to ask who is signed in.
  */
 export async function syncOnce(userId: number, deviceId: string, deps: SyncDeps = realDeps): Promise<SyncOutcome> {
   await refuseOrphans(userId);
   const queued = await listQueued(userId);
-  const me = await deps.whoIsSignedIn();
-  if (me.kind === 'offline') return { kind: 'offline' };
-  if (me.kind === 'status')
-    return me.status === 401 ? { kind: 'signed-out' } : { kind: 'error', status: me.status, error: me.error };
-  if (me.value.id !== userId) return { kind: 'other-user', signedInId: me.value.id };
 
   const total = { sent: 0, stored: 0, rejected: 0, retry: 0 };
   const canals = new Map<string, CanalResult>();
@@ -86,6 +81,39 @@ export async function syncOnce(userId: number, deviceId: string, deps: SyncDeps 
     }
   }
   return { kind: 'done', ...total, canals: [...canals.values()] };
+}
+
+export type PullOutcome =
+  | { kind: 'unchanged' }
+  | { kind: 'changed'; etag: string | null; reviewStatus?: ReviewStatus }
+  | { kind: 'offline' }
+  | { kind: 'signed-out' }
+  | { kind: 'missing' }
+  | { kind: 'error'; status: number };
+
+/**
+ * Pull one case's news with a conditional GET and merge what changed into this tablet: the
+ * server's canal verdicts (state, findings, review states) and any stored event the tablet
+ * lacks (never overwriting one it recorded). `etag` is the one the last pull returned.
+ */
+export async function pullCase(
+  userId: number,
+  caseId: string,
+  etag: string | null,
+  get: (caseId: string, etag: string | null) => Promise<Answer<CaseAnswer>> = fetchCaseIfChanged,
+): Promise<PullOutcome> {
+  const news = await get(caseId, etag);
+  if (news.kind === 'offline') return { kind: 'offline' };
+  if (news.kind === 'status') {
+    if (news.status === 304) return { kind: 'unchanged' };
+    if (news.status === 401) return { kind: 'signed-out' };
+    // Not on the server yet (its opening still queued), or not this user's: nothing to merge.
+    return news.status === 404 ? { kind: 'missing' } : { kind: 'error', status: news.status };
+  }
+  const { events, canals, reviewStatus } = news.value;
+  if (events.length) await importSynced(userId, events);
+  if (canals.length) await putServerCanals(userId, canals);
+  return { kind: 'changed', etag: news.etag ?? null, ...(reviewStatus ? { reviewStatus } : {}) };
 }
 
 /** Back-off after failed attempts: 2 s, 4 s, 8 s … capped at 5 minutes, with jitter. */

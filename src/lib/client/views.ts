@@ -1,11 +1,6 @@
-import { evaluateCanal, tallyEvent, tallyOf, type CanalResult, type LogEvent } from '../rules/core';
+import { tallyEvent, tallyOf, type CanalResult, type LogEvent } from '../rules/core';
+import { caseEvents } from './derive';
 import type { ServerCanal, StoredEvent } from './outbox';
-
-/** The events of one case that count on this tablet (rejected ones were never stored). */
-export function caseEvents(rows: StoredEvent[], caseId: string | null): LogEvent[] {
-  if (!caseId) return [];
-  return rows.filter((r) => r.event.caseId === caseId && r.state !== 'rejected').map((r) => r.event);
-}
 
 export interface ShownResult {
   result: CanalResult | null;
@@ -14,12 +9,13 @@ export interface ShownResult {
 
 /**
  * The canal's state and findings to show: the server's verdict once everything of the case
- * has reached it, the rules core's local verdict while anything is still waiting.
+ * has reached it, the rules core's local verdict (`local`, memoised in the store) while
+ * anything is still waiting.
  */
 export function shownResult(
   rows: StoredEvent[],
   server: Record<string, ServerCanal>,
-  events: LogEvent[],
+  local: CanalResult | null,
   caseId: string,
   canalId: string,
 ): ShownResult {
@@ -28,7 +24,7 @@ export function shownResult(
   );
   const fromServer = server[canalId]?.result;
   if (!waiting && fromServer) return { result: fromServer, source: 'server' };
-  return { result: evaluateCanal(canalId, events), source: 'tablet' };
+  return { result: local, source: 'tablet' };
 }
 
 /** Rejected events of one case, with the server's reason. */

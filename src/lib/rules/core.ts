@@ -40,8 +40,9 @@ export type { CaseState, CaseAction, Refusal as LifecycleRefusal } from './lifec
 export type { Tolerances } from './tolerances';
 export { FINDINGS, FINDING_CODES, SAFETY_LINE } from './findings';
 export type { Severity, FindingCode, Finding, FindingInfo } from './findings';
-export { evaluateCanal } from './evaluate';
-export type { CanalResult } from './evaluate';
+export { evaluateCanal, readCanal } from './evaluate';
+export type { CanalResult, CanalReading } from './evaluate';
+export { caseTimeline, compareEvents } from './timeline';
 export type { CanalState, CanalStatus } from './state';
 export { canalThirds, isCompactionComplete } from './thirds';
 export type { CanalThirds } from './thirds';

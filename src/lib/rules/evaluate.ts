@@ -18,6 +18,13 @@ export interface CanalResult {
 
 const SEVERITY_RANK: Record<Severity, number> = { stop: 0, caution: 1, note: 2 };
 
+/** A canal's result together with the events that counted for it (its own and case-level). */
+export interface CanalReading {
+  result: CanalResult;
+  /** The canal's timeline: voided events and the voids themselves removed, in rules order. */
+  counted: LogEvent[];
+}
+
 /**
  * The state and open findings of one canal. `events` may hold the whole case, in any order:
  * the canal's own events and the case-level ones are used, voided events dropped, the rest
@@ -30,6 +37,18 @@ export function evaluateCanal(
   events: readonly LogEvent[],
   tolerances?: Partial<Tolerances>,
 ): CanalResult | null {
+  return readCanal(canalId, events, tolerances)?.result ?? null;
+}
+
+/**
+ * evaluateCanal and the events it counted, from one pass: the tablet shows both (the step
+ * cards and the timeline read the counted events, the findings and diagram the result).
+ */
+export function readCanal(
+  canalId: string,
+  events: readonly LogEvent[],
+  tolerances?: Partial<Tolerances>,
+): CanalReading | null {
   try {
     const timeline = canalTimeline(canalId, events);
     if (timeline === null) return null;
@@ -45,7 +64,10 @@ export function evaluateCanal(
           a.n - b.n,
       )
       .map((x) => x.f);
-    return { canalId, caseId: timeline.caseId, state: deriveState(view), findings };
+    return {
+      result: { canalId, caseId: timeline.caseId, state: deriveState(view), findings },
+      counted: timeline.events,
+    };
   } catch {
     // Only input that never passed parseEvent can get here; it has no state to report.
     return null;

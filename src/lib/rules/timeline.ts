@@ -56,17 +56,12 @@ export interface Timeline {
 }
 
 /**
- * The events that count for one canal. The case is the one its earliest `canal.added` names.
- * An `event.voided` voids an event of its own scope (the same canal, or both case-level);
- * a void that is itself the target of a void does not void anything (one level, so the
- * result never depends on the order voids are read).
+ * The events of one scope with the withdrawn ones and the withdrawals removed. An
+ * `event.voided` voids an event of its own scope (the same canal, or both case-level); a void
+ * that is itself the target of a void does not void anything (one level, so the result never
+ * depends on the order voids are read). `scoped` is in rules order and holds one scope's events.
  */
-export function canalTimeline(canalId: string, input: readonly unknown[]): Timeline | null {
-  const all = dedupe(input.filter(looksLikeEvent)).sort(compareEvents);
-  const added = all.find((e) => e.type === 'canal.added' && e.canalId === canalId);
-  if (added === undefined) return null;
-  const caseId = added.caseId;
-  const scoped = all.filter((e) => e.caseId === caseId && (e.canalId === undefined || e.canalId === canalId));
+function withoutVoided(scoped: LogEvent[]): LogEvent[] {
   const byId = new Map(scoped.map((e) => [e.id, e]));
   const voids = scoped.filter((e): e is Extract<LogEvent, { type: 'event.voided' }> => e.type === 'event.voided');
   const targetedByVoid = new Set(voids.map((v) => v.data.eventId));
@@ -76,6 +71,30 @@ export function canalTimeline(canalId: string, input: readonly unknown[]): Timel
     const target = byId.get(v.data.eventId);
     if (target !== undefined && target.canalId === v.canalId) voided.add(target.id);
   }
-  const events = scoped.filter((e) => e.type !== 'event.voided' && !voided.has(e.id));
-  return { caseId, events };
+  return scoped.filter((e) => e.type !== 'event.voided' && !voided.has(e.id));
+}
+
+/**
+ * The events that count for one canal. The case is the one its earliest `canal.added` names;
+ * the canal's own events and the case's case-level events, voids applied as withoutVoided says.
+ */
+export function canalTimeline(canalId: string, input: readonly unknown[]): Timeline | null {
+  const all = dedupe(input.filter(looksLikeEvent)).sort(compareEvents);
+  const added = all.find((e) => e.type === 'canal.added' && e.canalId === canalId);
+  if (added === undefined) return null;
+  const caseId = added.caseId;
+  const scoped = all.filter((e) => e.caseId === caseId && (e.canalId === undefined || e.canalId === canalId));
+  return { caseId, events: withoutVoided(scoped) };
+}
+
+/**
+ * The case-level events of one case that count (those without a `canalId`), in rules order,
+ * by the same void rules as a canal's: what every canal of the case sees besides its own.
+ * Example: `caseTimeline(id, events).some((e) => e.type === 'case.submitted')`.
+ */
+export function caseTimeline(caseId: string, input: readonly unknown[]): LogEvent[] {
+  const scoped = dedupe(input.filter(looksLikeEvent))
+    .filter((e) => e.caseId === caseId && e.canalId === undefined)
+    .sort(compareEvents);
+  return withoutVoided(scoped);
 }

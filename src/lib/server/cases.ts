@@ -1,4 +1,5 @@
 /** Case lists and case detail for the API and the pages. */
+import { createHash } from 'node:crypto';
 import type { Knex } from 'knex';
 import type { CaseSummary } from '../contract';
 import type { CanalResult, LogEvent } from '../rules/index';
@@ -71,4 +72,66 @@ export async function caseDetail(k: Knex, user: SessionUser, caseId: string): Pr
   const setUp = events.filter((e) => e.type === 'canal.added').map((e) => e.canalId);
   canals.sort((a, b) => setUp.indexOf(a.canalId) - setUp.indexOf(b.canalId));
   return { caseId, case: row, events, canals };
+}
+
+// Bump when the case answer's shape changes, so a tablet's stored ETag stops matching.
+const CASE_ANSWER_FORMAT = 'c1';
+
+/**
+ * The case's data version as a strong ETag: a hash of everything GET /api/cases/{id} answers
+ * from — the case row's review status, submission, sign-off and updated_at; the count, last
+ * rowid and last received_at of its events (never edited, only added); the count and latest
+ * updated_at of its canal rows; the count of its findings. Every write that changes the answer
+ * (a sync batch, a sign-off) touches one of them; an unchanged case always hashes the same.
+ * One indexed query, no events read: the cheap half of a conditional GET.
+ */
+export async function caseVersion(k: Knex, caseId: string): Promise<string | null> {
+  const row = (await k('cases as c')
+    .where('c.id', caseId)
+    .first(
+      'c.review_status',
+      'c.submitted_at',
+      'c.signed_off_at',
+      'c.updated_at',
+      k.raw(
+        "(select count(*) || ':' || coalesce(max(rowid), 0) || ':' || coalesce(max(received_at), '') from events where case_id = c.id) as ev",
+      ),
+      k.raw("(select count(*) || ':' || coalesce(max(updated_at), '') from canals where case_id = c.id) as ca"),
+      k.raw('(select count(*) from findings where case_id = c.id) as fi'),
+    )) as Record<string, unknown> | undefined;
+  if (!row) return null;
+  const hash = createHash('sha256')
+    .update(JSON.stringify(Object.values(row)))
+    .digest('base64url');
+  return `"${CASE_ANSWER_FORMAT}-${hash.slice(0, 32)}"`;
+}
+
+/** Whether an If-None-Match header names `etag` (weak comparison, as RFC 9110 asks for this header). */
+export function etagMatches(ifNoneMatch: string | null, etag: string): boolean {
+  if (!ifNoneMatch) return false;
+  if (ifNoneMatch.trim() === '*') return true;
+  const bare = (t: string) => t.trim().replace(/^W\//, '');
+  return ifNoneMatch.split(',').some((t) => bare(t) === bare(etag));
+}
+
+export type CaseRead =
+  { kind: 'missing' } | { kind: 'unchanged'; etag: string } | { kind: 'changed'; etag: string; detail: CaseDetail };
+
+/**
+ * The case for a conditional GET: `unchanged` when the reader's ETag still names the case's
+ * data version (nothing else is read), else the detail with its new ETag. The version is
+ * taken before the detail, so an ETag never stands for an answer older than itself.
+ */
+export async function readCaseIfChanged(
+  k: Knex,
+  user: SessionUser,
+  caseId: string,
+  ifNoneMatch: string | null,
+): Promise<CaseRead> {
+  if (!(await readableCase(k, user, caseId))) return { kind: 'missing' };
+  const etag = await caseVersion(k, caseId);
+  if (etag === null) return { kind: 'missing' };
+  if (etagMatches(ifNoneMatch, etag)) return { kind: 'unchanged', etag };
+  const detail = await caseDetail(k, user, caseId);
+  return detail ? { kind: 'changed', etag, detail } : { kind: 'missing' };
 }

@@ -1,6 +1,8 @@
 import { describe, expect, it } from 'vitest';
-import { nextCard, rulerValues, type FlowContext } from '../../../src/lib/client/flow';
-import type { FlowEvent } from '../../../src/lib/client/events';
+import { readCanal, type LogEvent } from '../../../src/lib/rules/core';
+import { nextCard as cardFor, rulerValues, type Card, type FlowContext } from '../../../src/lib/client/flow';
+
+type FlowEvent = LogEvent;
 
 const CASE = 'case-1';
 const CANAL = 'canal-d';
@@ -9,16 +11,24 @@ let n = 0;
 function ev(type: string, data: object = {}, canalId: string | undefined = CANAL): FlowEvent {
   clock += 1000;
   n += 1;
-  return { id: `e${String(n).padStart(3, '0')}`, caseId: CASE, canalId, type, at: new Date(clock).toISOString(), data };
+  const id = `e${String(n).padStart(3, '0')}`;
+  const at = new Date(clock).toISOString();
+  return { id, caseId: CASE, ...(canalId ? { canalId } : {}), type, at, data } as unknown as FlowEvent;
 }
 const ctx = (over: Partial<FlowContext> = {}): FlowContext => ({
-  setting: 'extracted',
-  cwlMm: 20.5,
-  complete: false,
   findingCodes: [],
   compactionFinished: false,
   ...over,
 });
+/** The card for the canal as the rules core reads these events (the island's one path). */
+function nextCard(events: FlowEvent[], canalId: string, context: FlowContext): Card {
+  const reading = readCanal(canalId, events);
+  if (!reading) throw new Error('the rules core found no canal');
+  return cardFor(reading, context);
+}
+/** The same events on a training block. */
+const onBlock = (events: FlowEvent[]) =>
+  events.map((e) => (e.type === 'case.opened' ? ({ ...e, data: { setting: 'block' } } as FlowEvent) : e));
 
 /** The events of an extracted lower first molar's distal canal up to a seated master cone. */
 function upToSeated(): FlowEvent[] {
@@ -58,9 +68,9 @@ describe('nextCard', () => {
   });
 
   it('skips radiographs on a training block', () => {
-    const all = upToSeated().filter((e) => e.type !== 'radiograph.taken');
-    expect(nextCard(all.slice(0, 4), CANAL, ctx({ setting: 'block' })).kind).toBe('rinse');
-    expect(nextCard(all.slice(0, 7), CANAL, ctx({ setting: 'block' })).kind).toBe('seal');
+    const all = onBlock(upToSeated().filter((e) => e.type !== 'radiograph.taken'));
+    expect(nextCard(all.slice(0, 4), CANAL, ctx()).kind).toBe('rinse');
+    expect(nextCard(all.slice(0, 7), CANAL, ctx()).kind).toBe('seal');
   });
 
   it('asks for the master cone again after a short fit', () => {
@@ -135,13 +145,13 @@ describe('nextCard', () => {
     expect(nextCard(all, CANAL, ctx()).kind).toBe('done');
   });
 
-  it('tells the spreader card when compaction is complete', () => {
+  it('tells the spreader card when the rules core finds compaction complete', () => {
     const all = upToSeated();
     all.push(
       ev('spreader.placed', { spreader: 'MF', depthMm: 11 }),
       ev('accessory.placed', { size: 'MF', lengthMm: 11, reachedLength: true }),
     );
-    expect(nextCard(all, CANAL, ctx({ complete: true }))).toMatchObject({
+    expect(nextCard(all, CANAL, ctx())).toMatchObject({
       kind: 'spreader',
       cycle: 2,
       centre: 11,

@@ -139,7 +139,7 @@ describe('applyResults, the retry cap', () => {
     const e = event();
     await set(
       [9, e.id],
-      { userId: 9, event: e, seq: 1, state: 'queued', retries: 40, error: 'old' } satisfies StoredEvent,
+      { kind: 'event', userId: 9, event: e, seq: 1, state: 'queued', retries: 40, error: 'old' } satisfies StoredEvent,
       useStore('events', true),
     );
     await applyResults(9, retry(e.id), at(30 * DAY));

@@ -5,7 +5,6 @@ import type { LogEvent } from '../../../src/lib/rules/index';
 import { closeDb } from '../../../src/lib/client/db';
 import { listEvents, listQueued, listServerCanals, putEvent } from '../../../src/lib/client/outbox';
 import { backoffMs, syncOnce, toBatches, type SyncDeps } from '../../../src/lib/client/sync';
-import type { Me } from '../../../src/lib/client/api';
 
 let n = 0;
 function event(): LogEvent {
@@ -19,9 +18,6 @@ function event(): LogEvent {
     data: {},
   } as unknown as LogEvent;
 }
-const me =
-  (id: number): SyncDeps['whoIsSignedIn'] =>
-  async () => ({ kind: 'ok', value: { id, name: 'x', role: 'student' } as Me });
 
 beforeEach(async () => {
   await closeDb();
@@ -29,26 +25,22 @@ beforeEach(async () => {
 });
 
 describe('syncOnce', () => {
-  it('sends nothing when another user is signed in', async () => {
-    await putEvent(1, event());
+  it('sends nothing, and asks the server nothing, when the outbox is empty', async () => {
     const sent: LogEvent[][] = [];
     const out = await syncOnce(1, 'tablet-1', {
-      whoIsSignedIn: me(2),
       post: async (_d, e) => {
         sent.push(e);
         return { kind: 'offline', error: '' };
       },
     });
-    expect(out).toEqual({ kind: 'other-user', signedInId: 2 });
+    expect(out).toMatchObject({ kind: 'done', sent: 0 });
     expect(sent).toEqual([]);
-    expect(await listQueued(1)).toHaveLength(1);
   });
 
   it("names the outbox's owner in every batch, and stops with the outbox intact when the server says the session is someone else's", async () => {
     for (let i = 0; i < 2; i++) await putEvent(1, event());
     const owners: number[] = [];
     const out = await syncOnce(1, 'tablet-1', {
-      whoIsSignedIn: me(1),
       post: async (_d, _e, userId) => {
         owners.push(userId);
         return { kind: 'status', status: 403, error: 'These events belong to another account', code: 'other-user' };
@@ -63,7 +55,6 @@ describe('syncOnce', () => {
     const bad = event();
     await putEvent(1, bad);
     await syncOnce(1, 'tablet-1', {
-      whoIsSignedIn: me(1),
       post: async () => ({
         kind: 'ok',
         value: {
@@ -77,7 +68,6 @@ describe('syncOnce', () => {
     await putEvent(1, undo);
     const sent: string[] = [];
     await syncOnce(1, 'tablet-1', {
-      whoIsSignedIn: me(1),
       post: async (_d, batch) => {
         sent.push(...batch.map((e) => e.id));
         return { kind: 'ok', value: { contractVersion: 1, results: [], canals: [] } };
@@ -91,7 +81,6 @@ describe('syncOnce', () => {
   it('keeps the outbox intact when the network drops mid-sync', async () => {
     for (let i = 0; i < 3; i++) await putEvent(1, event());
     const out = await syncOnce(1, 'tablet-1', {
-      whoIsSignedIn: me(1),
       post: async () => ({ kind: 'offline', error: 'Failed to fetch' }),
     });
     expect(out).toEqual({ kind: 'offline' });
@@ -103,7 +92,6 @@ describe('syncOnce', () => {
     for (const e of evs) await putEvent(1, e);
     let got: string[] = [];
     const out = await syncOnce(1, 'tablet-1', {
-      whoIsSignedIn: me(1),
       post: async (_d, batch) => {
         got = batch.map((e) => e.id);
         return {
@@ -131,7 +119,6 @@ describe('syncOnce', () => {
     for (let i = 0; i < 4; i++) await putEvent(1, event());
     const sizes: number[] = [];
     await syncOnce(1, 'tablet-1', {
-      whoIsSignedIn: me(1),
       post: async (_d, batch) => {
         sizes.push(batch.length);
         if (batch.length > 2) return { kind: 'status', status: 413 };
@@ -157,7 +144,6 @@ describe('syncOnce, the retry cap', () => {
     let clock = new Date('2026-12-02T09:00:00.000Z');
     const sent: string[] = [];
     const deps: SyncDeps = {
-      whoIsSignedIn: me(1),
       now: () => clock,
       post: async (_d, batch) => {
         sent.push(...batch.map((x) => x.id));
@@ -187,11 +173,23 @@ describe('syncOnce, the retry cap', () => {
 
 describe('toBatches', () => {
   it('cuts the outbox into batches of at most 500 events', () => {
-    const rows = Array.from({ length: 1201 }, () => ({ userId: 1, event: event(), seq: 0, state: 'queued' as const }));
+    const rows = Array.from({ length: 1201 }, () => ({
+      kind: 'event' as const,
+      userId: 1,
+      event: event(),
+      seq: 0,
+      state: 'queued' as const,
+    }));
     expect(toBatches(rows).map((b) => b.length)).toEqual([500, 500, 201]);
   });
   it('cuts by size too', () => {
-    const rows = Array.from({ length: 10 }, () => ({ userId: 1, event: event(), seq: 0, state: 'queued' as const }));
+    const rows = Array.from({ length: 10 }, () => ({
+      kind: 'event' as const,
+      userId: 1,
+      event: event(),
+      seq: 0,
+      state: 'queued' as const,
+    }));
     expect(toBatches(rows, 500, 400).length).toBeGreaterThan(1);
   });
 });
