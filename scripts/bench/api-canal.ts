@@ -9,7 +9,7 @@
  */
 import { spawn } from 'node:child_process';
 import { randomUUID } from 'node:crypto';
-import { mkdtempSync, rmSync } from 'node:fs';
+import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import autocannon from 'autocannon';
@@ -24,6 +24,8 @@ const WARMUP_S = 3;
 const DURATION_S = Number(process.env.BENCH_DURATION_S ?? 10);
 // BENCH_ONLY=canal runs the server's canal read alone (for profiling it with SERVER_NODE_ARGS).
 const ONLY_CANAL = process.env.BENCH_ONLY === 'canal';
+// BENCH_OUT_DIR=/path/to/another/dist times another build (e.g. the one before a change) on the same data.
+const OUT_DIR = process.env.BENCH_OUT_DIR;
 const SECRET = 'api-canal-bench-secret-api-canal-bench-secret';
 const UUID_G = /[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}/gi;
 
@@ -127,11 +129,20 @@ interface Figures {
   rps: number;
   p95: number;
   p50: number;
+  /** The answering process's CPU time (user + system) per answer: far less swayed by other work on the machine. */
+  cpuUs: number;
+}
+
+/** User + system CPU time of a process in µs, from /proc (Linux). */
+function cpuTimeUs(pid: number): number {
+  const fields = readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ')[1]!.split(' ');
+  return ((Number(fields[11]) + Number(fields[12])) * 1_000_000) / 100; // clock ticks of 1/100 s
 }
 
 /** One autocannon run: `paths` round-robin, every answer must be a 200. */
 async function load(
   baseUrl: string,
+  pid: number,
   paths: string[],
   headers: Record<string, string>,
   seconds: number,
@@ -139,40 +150,58 @@ async function load(
   let next = 0;
   const latencies: number[] = [];
   let bad = 0;
-  const instance = autocannon({
-    url: baseUrl,
-    connections: CONNECTIONS,
-    duration: seconds,
-    requests: [
+  const cpu0 = cpuTimeUs(pid);
+  const result = await new Promise<autocannon.Result>((ok, fail) => {
+    const instance = autocannon(
       {
-        method: 'GET',
-        headers,
-        setupRequest: (req) => ({ ...req, path: paths[next++ % paths.length]! }),
+        url: baseUrl,
+        connections: CONNECTIONS,
+        duration: seconds,
+        requests: [
+          {
+            method: 'GET',
+            headers,
+            setupRequest: (req) => ({ ...req, path: paths[next++ % paths.length]! }),
+          },
+        ],
       },
-    ],
+      (err, res) => (err ? fail(err) : ok(res)),
+    );
+    instance.on('response', (_client, statusCode, _bytes, responseTime) => {
+      if (statusCode === 200) latencies.push(responseTime);
+      else bad++;
+    });
   });
-  instance.on('response', (_client, statusCode, _bytes, responseTime) => {
-    if (statusCode === 200) latencies.push(responseTime);
-    else bad++;
-  });
-  const result = await instance;
+  const cpu = cpuTimeUs(pid) - cpu0;
   if (bad > 0 || result.errors > 0 || result.timeouts > 0)
     throw new Error(
       `${baseUrl}${paths[0]}: ${bad} answers not 200, ${result.errors} errors, ${result.timeouts} timeouts`,
     );
   const sorted = Float64Array.from(latencies).sort();
-  return { rps: latencies.length / result.duration, p95: percentile(sorted, 95), p50: percentile(sorted, 50) };
+  return {
+    rps: latencies.length / result.duration,
+    p95: percentile(sorted, 95),
+    p50: percentile(sorted, 50),
+    cpuUs: cpu / latencies.length,
+  };
 }
 
 /** A warm-up, then the measured run. */
-async function measure(name: string, baseUrl: string, paths: string[], headers: Record<string, string> = {}) {
-  await load(baseUrl, paths, headers, WARMUP_S);
-  const f = await load(baseUrl, paths, headers, DURATION_S);
-  console.log(`${name}: ${Math.round(f.rps)} requests/s, p50 ${f.p50.toFixed(1)} ms, p95 ${f.p95.toFixed(1)} ms`);
+async function measure(
+  name: string,
+  target: { baseUrl: string; pid: number },
+  paths: string[],
+  headers: Record<string, string> = {},
+) {
+  await load(target.baseUrl, target.pid, paths, headers, WARMUP_S);
+  const f = await load(target.baseUrl, target.pid, paths, headers, DURATION_S);
+  console.log(
+    `${name}: ${Math.round(f.rps)} requests/s, p50 ${f.p50.toFixed(1)} ms, p95 ${f.p95.toFixed(1)} ms, ${Math.round(f.cpuUs)} µs CPU a request`,
+  );
   return f;
 }
 
-async function startBare(dbFile: string): Promise<{ baseUrl: string; stop(): Promise<void> }> {
+async function startBare(dbFile: string): Promise<{ baseUrl: string; pid: number; stop(): Promise<void> }> {
   const port = await freePort();
   const child = spawn(process.execPath, ['--import', 'tsx', resolve(import.meta.dirname, 'lib/bare-canal-server.ts')], {
     env: { ...process.env, DB_FILE: dbFile, AUTH_SECRET: SECRET, PORT: String(port) },
@@ -184,6 +213,7 @@ async function startBare(dbFile: string): Promise<{ baseUrl: string; stop(): Pro
   });
   return {
     baseUrl: `http://127.0.0.1:${port}`,
+    pid: child.pid!,
     async stop() {
       if (child.exitCode !== null) return;
       const exited = new Promise((r) => child.once('exit', r));
@@ -199,7 +229,11 @@ await prepareDb(template, { seed: true });
 const t0 = performance.now();
 const canalIds = cloneCanals(template);
 console.log(`database built in ${((performance.now() - t0) / 1000).toFixed(1)} s`);
-const server = await startServer({ templateDb: template, env: { AUTH_SECRET: SECRET } });
+const server = await startServer({
+  templateDb: template,
+  env: { AUTH_SECRET: SECRET },
+  ...(OUT_DIR ? { outDir: OUT_DIR } : {}),
+});
 let bare: Awaited<ReturnType<typeof startBare>> | null = null;
 try {
   const api = await apiSignIn(server.baseUrl, DEMO.helen, DEMO.password);
@@ -218,16 +252,22 @@ try {
     if (a !== b) throw new Error(`the bare handler answers differently:\n${a}\n${b}`);
   }
 
-  const canal = await measure('server canal', server.baseUrl, paths, headers);
+  const canal = await measure('server canal', server, paths, headers);
   console.log(`api.canal.rps: ${Math.round(canal.rps)}`);
   console.log(`api.canal.p95_ms: ${canal.p95.toFixed(1)}`);
+  console.log(`api.canal.cpu_us_per_request: ${Math.round(canal.cpuUs)}`);
   if (!ONLY_CANAL) {
-    const floor = await measure('server health', server.baseUrl, ['/api/health']);
-    const bareRun = await measure('bare canal', bare.baseUrl, paths, headers);
+    const floor = await measure('server health', server, ['/api/health']);
+    const bareRun = await measure('bare canal', bare, paths, headers);
     console.log(`api.canal.bare_rps: ${Math.round(bareRun.rps)}`);
     console.log(`api.floor.rps: ${Math.round(floor.rps)}`);
     console.log(`api.canal.ratio_to_bare: ${(canal.rps / bareRun.rps).toFixed(3)}`);
     console.log(`api.canal.ratio_to_floor: ${(canal.rps / floor.rps).toFixed(3)}`);
+    console.log(`api.canal.bare_cpu_us_per_request: ${Math.round(bareRun.cpuUs)}`);
+    console.log(`api.floor.cpu_us_per_request: ${Math.round(floor.cpuUs)}`);
+    // The same ratios by CPU time a request, which other work on a shared machine sways far less.
+    console.log(`api.canal.cpu_ratio_to_bare: ${(bareRun.cpuUs / canal.cpuUs).toFixed(3)}`);
+    console.log(`api.canal.cpu_ratio_to_floor: ${(floor.cpuUs / canal.cpuUs).toFixed(3)}`);
   }
 } finally {
   await bare?.stop();
