@@ -12,6 +12,8 @@ export interface TestServer {
   baseUrl: string;
   dbFile: string;
   dir: string;
+  /** The server's process id (benchmarks read its CPU time). */
+  pid: number;
   /** Everything the server printed, for tests that look at its logs. */
   output(): string;
   stop(): Promise<void>;
@@ -85,6 +87,7 @@ export async function startServer(
     baseUrl,
     dbFile,
     dir,
+    pid: child.pid!,
     output: () => log,
     async stop() {
       if (child.exitCode === null) {

@@ -4,6 +4,7 @@
  */
 import type { Knex } from 'knex';
 import { REVIEW_STATES_SHOWN_ON_CANALS, type CanalResult, type CaseState, type LogEvent } from '../rules/index';
+import { withStatements } from './prepared';
 
 /** Status of a canal whose canal.added was withdrawn. */
 export const REMOVED = 'removed';
@@ -52,23 +53,7 @@ interface FindingRow {
 }
 
 /** Stored canal rows (with their case's review status) and their findings, as the API answers them. */
-async function readCanals(k: Knex, where: { canalId: string } | { caseId: string }): Promise<CanalResult[]> {
-  const q = k<CanalRow>('canals')
-    .join('cases', 'cases.id', 'canals.case_id')
-    .select('canals.id', 'canals.case_id', 'canals.state_json', 'cases.review_status')
-    .whereNot('canals.status', REMOVED)
-    .orderBy('canals.id');
-  const rows = (await ('canalId' in where
-    ? q.where('canals.id', where.canalId)
-    : q.where('canals.case_id', where.caseId))) as CanalRow[];
-  if (rows.length === 0) return [];
-  const findings = (await k('findings')
-    .select('canal_id', 'code', 'severity', 'event_id', 'message')
-    .whereIn(
-      'canal_id',
-      rows.map((r) => r.id),
-    )
-    .orderBy('id')) as FindingRow[];
+function toResults(rows: CanalRow[], findings: FindingRow[]): CanalResult[] {
   return rows.map((row) =>
     withReviewStatus(
       {
@@ -89,14 +74,40 @@ async function readCanals(k: Knex, where: { canalId: string } | { caseId: string
   );
 }
 
-/** The stored canal as the API answers it; the review states come from the sign-offs. */
-export async function storedCanal(k: Knex, canalId: string): Promise<CanalResult | null> {
-  return (await readCanals(k, { canalId }))[0] ?? null;
+const CANAL = `select canals.id, canals.case_id, canals.state_json, cases.review_status from canals
+  inner join cases on cases.id = canals.case_id where canals.status <> '${REMOVED}' and canals.id = ?`;
+const CANAL_FINDINGS =
+  'select canal_id, code, severity, event_id, message from findings where canal_id = ? order by id';
+
+/**
+ * The stored canal as the API answers it; the review states come from the sign-offs. Read on
+ * every canal request (and by each tablet's sync loop), so two prepared statements.
+ */
+export function storedCanal(k: Knex, canalId: string): Promise<CanalResult | null> {
+  return withStatements(k, (prepare) => {
+    const row = prepare(CANAL).get(canalId) as CanalRow | undefined;
+    if (!row) return null;
+    return toResults([row], prepare(CANAL_FINDINGS).all(canalId) as FindingRow[])[0] ?? null;
+  });
 }
 
 /** Every stored canal of a case, in two queries. */
-export function storedCanalsOfCase(k: Knex, caseId: string): Promise<CanalResult[]> {
-  return readCanals(k, { caseId });
+export async function storedCanalsOfCase(k: Knex, caseId: string): Promise<CanalResult[]> {
+  const rows = (await k<CanalRow>('canals')
+    .join('cases', 'cases.id', 'canals.case_id')
+    .select('canals.id', 'canals.case_id', 'canals.state_json', 'cases.review_status')
+    .whereNot('canals.status', REMOVED)
+    .where('canals.case_id', caseId)
+    .orderBy('canals.id')) as CanalRow[];
+  if (rows.length === 0) return [];
+  const findings = (await k('findings')
+    .select('canal_id', 'code', 'severity', 'event_id', 'message')
+    .whereIn(
+      'canal_id',
+      rows.map((r) => r.id),
+    )
+    .orderBy('id')) as FindingRow[];
+  return toResults(rows, findings);
 }
 
 /**
