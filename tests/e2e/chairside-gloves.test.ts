@@ -1,0 +1,184 @@
+// The chairside island for gloved hands: the tap budget, wake lock, withdrawing and correcting,
+// refused answers, and the patient path.
+import { mkdirSync } from 'node:fs';
+import type { Browser, BrowserContext, Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { launchBrowser } from '../helpers/browser';
+import { DEMO } from '../helpers/client';
+import { startServer, type TestServer } from '../helpers/server';
+import knexFactory from 'knex';
+import { sqliteOptions } from '../../src/lib/server/knex-options';
+import * as chairside from '../helpers/chairside';
+
+// Invented scenario: an extracted lower left first molar (36), distal canal, CWL 20.5 mm,
+// MAF 35, orifice 9.0 mm from the reference point (so a spreader at 12.5 mm no longer passes
+// the coronal third).
+let server: TestServer;
+let browser: Browser;
+beforeAll(async () => {
+  mkdirSync('test-results', { recursive: true });
+  [server, browser] = await Promise.all([startServer(), launchBrowser()]);
+});
+afterAll(async () => {
+  await browser?.close();
+  await server?.stop();
+});
+
+const { Driver, recordCanal, setUpDistal36, undersized, seriousViolations } = chairside;
+const openChairside = (page: Page, email: string, ready?: string) =>
+  chairside.openChairside(page, server.baseUrl, email, ready);
+
+describe('the chairside island for gloved hands', () => {
+  async function newSession(width: number, height: number): Promise<{ context: BrowserContext; page: Page }> {
+    const context = await browser.newContext({ viewport: { width, height } });
+    const page = await context.newPage();
+    await openChairside(page, DEMO.priya);
+    return { context, page };
+  }
+
+  it('fills a canal of an extracted tooth with four accessory cones in no more than 25 taps after set-up', async () => {
+    const { context, page } = await newSession(1280, 800);
+    await setUpDistal36(page);
+    const d = new Driver(page);
+    await recordCanal(d, { shortCone: false });
+    expect(d.taps).toBeLessThanOrEqual(25);
+    expect(d.taps).toBe(24);
+    await context.close();
+  });
+
+  it('keeps the screen awake while a canal is open, asking again when the page is shown again', async () => {
+    const context = await browser.newContext({ viewport: { width: 1024, height: 768 } });
+    // A stand-in Wake Lock that counts requests; the browser releases the lock when the page hides.
+    await context.addInitScript(() => {
+      const w = window as unknown as { wakeRequests: number; lastSentinel?: { released: boolean } };
+      w.wakeRequests = 0;
+      Object.defineProperty(navigator, 'wakeLock', {
+        value: {
+          request: async () => {
+            w.wakeRequests++;
+            const s = {
+              released: false,
+              release: async () => {
+                s.released = true;
+              },
+            };
+            w.lastSentinel = s;
+            return s;
+          },
+        },
+      });
+    });
+    const page = await context.newPage();
+    await openChairside(page, DEMO.priya);
+    expect(await page.evaluate(() => (window as unknown as { wakeRequests: number }).wakeRequests)).toBe(0);
+    await setUpDistal36(page);
+    await expect.poll(() => page.evaluate(() => (window as unknown as { wakeRequests: number }).wakeRequests)).toBe(1);
+    await page.evaluate(() => {
+      (window as unknown as { lastSentinel: { released: boolean } }).lastSentinel.released = true;
+      document.dispatchEvent(new Event('visibilitychange'));
+    });
+    await expect.poll(() => page.evaluate(() => (window as unknown as { wakeRequests: number }).wakeRequests)).toBe(2);
+    await context.close();
+  });
+
+  it("withdraws an answer from the canal's timeline and asks that step again", async () => {
+    const { context, page } = await newSession(1024, 768);
+    await setUpDistal36(page);
+    const d = new Driver(page);
+    await d.answer('seat', 'Seats and holds');
+    await d.ruler('taper', 19.5);
+    await d.answer('radiograph', 'Taken');
+    await d.card('rinse');
+    await page.getByRole('button', { name: /^Timeline/ }).click();
+    const row = page.getByTestId('timeline').getByRole('listitem').filter({ hasText: 'Taper check' });
+    await row.getByRole('button', { name: 'Withdraw' }).click();
+    await d.card('taper');
+    await expect(
+      page.getByTestId('timeline').getByRole('listitem').filter({ hasText: 'Taper check' }).count(),
+    ).resolves.toBe(0);
+    expect(await undersized(page)).toEqual([]);
+    expect(await seriousViolations(page)).toEqual([]);
+    await d.ruler('taper', 19);
+    await d.card('rinse');
+    await context.close();
+  });
+
+  it('corrects the CWL from the canal card, and the next rulers centre on the new length', async () => {
+    const { context, page } = await newSession(1024, 768);
+    await setUpDistal36(page);
+    const d = new Driver(page);
+    await d.answer('seat', 'Seats and holds');
+    await d.card('taper');
+    // Set up at 20.5 mm: the taper ruler expects CWL − 1 = 19.5.
+    await expect(
+      d.step().getByTestId('ruler').locator('button[data-mm="19.5"]').getAttribute('aria-label'),
+    ).resolves.toContain('expected');
+    await page.getByRole('button', { name: 'Correct the CWL (20.5 mm)' }).click();
+    await page.getByRole('button', { name: 'apex locator' }).click();
+    await page.getByTestId('cwl-ruler').locator('button[data-mm="21.5"]').click();
+    await page.getByRole('button', { name: 'Correct the CWL (21.5 mm)' }).waitFor();
+    await expect(
+      d.step().getByTestId('ruler').locator('button[data-mm="20.5"]').getAttribute('aria-label'),
+    ).resolves.toContain('expected');
+    await page.getByRole('button', { name: /^Timeline/ }).click();
+    await expect(page.getByTestId('timeline').textContent()).resolves.toContain('CWL corrected to 21.5');
+    expect(await undersized(page)).toEqual([]);
+    expect(await seriousViolations(page)).toEqual([]);
+    await context.close();
+  });
+
+  it('shows an answer the server refused, with its reason, until the student dismisses it', async () => {
+    const { context, page } = await newSession(1024, 768);
+    await setUpDistal36(page);
+    const d = new Driver(page);
+    await d.answer('seat', 'Seats and holds');
+    await page.locator('[data-testid="sync-state"][data-state="synced"]').waitFor({ timeout: 30_000 });
+    // Meanwhile the case is signed off on the server: it takes no more answers.
+    const k = knexFactory(sqliteOptions(server.dbFile));
+    try {
+      const row = (await k('cases')
+        .join('users', 'users.id', 'cases.student_id')
+        .where('users.email', DEMO.priya)
+        .orderBy('cases.opened_at', 'desc')
+        .first('cases.id')) as { id: string };
+      await k('cases').where({ id: row.id }).update({ review_status: 'approved' });
+    } finally {
+      await k.destroy();
+    }
+    await d.ruler('taper', 19.5);
+    const refused = page.getByTestId('rejected');
+    await refused.waitFor({ timeout: 30_000 });
+    await expect(refused.textContent()).resolves.toContain('signed off');
+    await expect(refused.textContent()).resolves.toContain('Taper check');
+    expect(await undersized(page)).toEqual([]);
+    expect(await seriousViolations(page)).toEqual([]);
+    await expect(refused.getByRole('listitem').count()).resolves.toBe(1);
+    await refused.getByRole('button', { name: 'Dismiss' }).click();
+    await refused.waitFor({ state: 'detached' });
+    await context.close();
+  });
+
+  it("opens a patient's tooth by chart number, the only typed entry", async () => {
+    const { context, page } = await newSession(768, 1024);
+    await page.getByTestId('new-case').click();
+    await page.getByRole('button', { name: 'Patient' }).click();
+    await page.getByTestId('quadrant-2').click();
+    await page.getByTestId('tooth-21').click();
+    await page.getByRole('textbox', { name: 'Chart number' }).fill('  TST-5521 ');
+    await page.getByRole('button', { name: 'Open case' }).click();
+    await page.getByTestId('canals-confirm').click();
+    await page.getByTestId('ruler-cwl').locator('button[data-mm="22.5"]').click();
+    await page.getByTestId('maf-50').click();
+    await page.getByTestId('save-canal').click();
+    await page.locator('[data-testid="step"][data-card="seat"]').waitFor();
+    await page.locator('[data-testid="sync-state"][data-state="synced"]').waitFor({ timeout: 30_000 });
+    const k = knexFactory(sqliteOptions(server.dbFile));
+    try {
+      const row = await k('cases').where({ chart_ref: 'TST-5521' }).first('setting', 'tooth');
+      expect(row).toEqual({ setting: 'patient', tooth: 21 });
+    } finally {
+      await k.destroy();
+    }
+    await context.close();
+  });
+});
