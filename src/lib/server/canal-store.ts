@@ -5,18 +5,13 @@
 import type { Knex } from 'knex';
 import { REVIEW_STATES_SHOWN_ON_CANALS, type CanalResult, type CaseState, type LogEvent } from '../rules/index';
 import { withStatements } from './prepared';
+import type { EventRow as StoredEventRow } from './tables';
 
 /** Status of a canal whose canal.added was withdrawn. */
 export const REMOVED = 'removed';
 
-export interface EventRow {
-  id: string;
-  case_id: string;
-  canal_id: string | null;
-  type: string;
-  at: string;
-  data_json: string;
-}
+/** The columns of an event row the rules need. */
+export type EventRow = Pick<StoredEventRow, 'id' | 'case_id' | 'canal_id' | 'type' | 'at' | 'data_json'>;
 
 export function rowToEvent(r: EventRow): LogEvent {
   const e: Record<string, unknown> = {
@@ -31,7 +26,7 @@ export function rowToEvent(r: EventRow): LogEvent {
 }
 
 export async function caseEvents(k: Knex, caseId: string): Promise<LogEvent[]> {
-  const rows = await k<EventRow>('events')
+  const rows = await k('events')
     .select('id', 'case_id', 'canal_id', 'type', 'at', 'data_json')
     .where({ case_id: caseId });
   return rows.map(rowToEvent);

@@ -56,7 +56,7 @@ async function eventsFor(
   canalIds: readonly string[],
 ): Promise<{ caseLevel: LogEvent[]; byCanal: Map<string, LogEvent[]> }> {
   const select = () =>
-    k<EventRow>('events').select('id', 'case_id', 'canal_id', 'type', 'at', 'data_json').where({ case_id: caseId });
+    k('events').select('id', 'case_id', 'canal_id', 'type', 'at', 'data_json').where({ case_id: caseId });
   const rows: EventRow[] = await select().whereNull('canal_id');
   rows.push(...(await inChunks(canalIds, (chunk) => select().whereIn('canal_id', chunk))));
   const caseLevel: LogEvent[] = [];
