@@ -48,7 +48,7 @@ describe('GET /api/cases/{caseId} and the case page', () => {
       const page = await as[who]!.fetch(`/cases/${molarCaseId}`);
       expect(page.status).toBe(200);
       const html = await page.text();
-      expect(html).toContain('Canal D');
+      expect(html).toContain('D canal');
       expect(html).toContain('mandibular left first molar');
     }
   });

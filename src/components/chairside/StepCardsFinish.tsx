@@ -1,4 +1,5 @@
 import { useState } from 'react';
+import { canalTitle } from '../../lib/present/labels';
 import { useChairside } from '../../lib/client/store';
 import { Answer, Answers, Chip, ChipGroup, StepCard } from './AnswerButtons';
 import { mm, RulerStrip } from './RulerStrip';
@@ -139,7 +140,7 @@ export function CleanCard({ rec }: CardProps) {
 export function DoneCard({ canal, onFinishTooth }: CardProps & { onFinishTooth: () => void }) {
   return (
     <StepCard
-      title={`Canal ${canal.name} is filled`}
+      title={`${canalTitle(canal.name)} is filled`}
       hint="Fill the other canals, then finish the tooth and submit it for review."
     >
       <Answers>

@@ -1,4 +1,5 @@
 import { useState } from 'react';
+import { canalTitle } from '../../lib/present/labels';
 import type { EventData, EventType } from '../../lib/contract';
 import type { EventOf } from '../../lib/rules/core';
 import type { CaseInfo, TabletCase } from '../../lib/client/derive';
@@ -98,10 +99,10 @@ export function Summary(props: { info: CaseInfo; tablet: TabletCase }) {
           return (
             <section
               key={c.canalId}
-              aria-label={`Canal ${c.name}`}
+              aria-label={canalTitle(c.name)}
               className="bg-white rounded-2xl border border-line p-3"
             >
-              <h2 className="text-xl font-bold">Canal {c.name}</h2>
+              <h2 className="text-xl font-bold">{canalTitle(c.name)}</h2>
               <div className="grid grid-cols-[160px_1fr] gap-3">
                 {shown.result && <CanalDiagram state={shown.result.state} />}
                 <FindingList findings={shown.result?.findings ?? []} source={shown.source} />

@@ -1,4 +1,5 @@
 import type { CanalState } from '../../lib/rules/core';
+import { canalTitle } from '../../lib/present/labels';
 import { mmValue } from '../../lib/present/format';
 
 /** The parts of a canal's derived state the diagram draws (CanalState from the rules core). */
@@ -39,7 +40,7 @@ export function CanalDiagram({ state, caption }: { state: DiagramState; caption?
   // Kept cones fan out beside the master cone, alternating sides, and meet it at their tips.
   const offset = (i: number) => (i % 2 === 0 ? -1 : 1) * (9 + 5 * Math.floor(i / 2));
   const summary = [
-    `Canal ${state.name}: CWL ${f1(cwl)} mm`,
+    `${canalTitle(state.name)}: CWL ${f1(cwl)} mm`,
     state.masterCone
       ? `master cone ${state.masterCone.size} at ${f1(state.masterCone.lengthMm)} mm`
       : 'no master cone yet',
@@ -167,7 +168,7 @@ export function CanalDiagram({ state, caption }: { state: DiagramState; caption?
         </text>
       </svg>
       <figcaption className="text-sm text-muted">
-        {caption ?? `Canal ${state.name}`}
+        {caption ?? canalTitle(state.name)}
         {estimated ? ' · * orifice estimated' : ''}
       </figcaption>
     </figure>

@@ -2,6 +2,7 @@
 // on the case page.
 import { mm } from './format';
 import {
+  canalTitle,
   fillLabel,
   plainWords,
   pointSizeLabel,
@@ -26,7 +27,7 @@ export function describeEvent(e: DescribedEvent): string {
     case 'case.opened':
       return data.tooth ? `Case opened: tooth ${s('tooth')}` : 'Case opened: training block';
     case 'canal.added':
-      return `Canal ${s('name')} set up: CWL ${mm(data.cwlMm)}, MAF ${s('mafSize')}`;
+      return `${canalTitle(s('name'))} set up: CWL ${mm(data.cwlMm)}, MAF ${s('mafSize')}`;
     case 'canal.cwlCorrected':
       return `CWL corrected to ${mm(data.cwlMm)}`;
     case 'seat.checked':

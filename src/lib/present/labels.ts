@@ -125,3 +125,11 @@ export function bySeverity<T extends { severity: Severity }>(list: readonly T[])
   return [...list].sort((a, b) => SEVERITY_ORDER[a.severity] - SEVERITY_ORDER[b.severity]);
 }
 export const severityWord = (v: string): string => look(SEVERITY_WORD, v);
+
+/**
+ * A canal's name as a heading: "MB canal", "Main canal". A name that already says canal (a
+ * training block's "Canal") stays as it is, so no heading reads "Canal Canal".
+ */
+export function canalTitle(name: string): string {
+  return /canal/i.test(name) ? name : `${name} canal`;
+}

@@ -15,6 +15,7 @@ import {
   REVIEW_LABEL,
   bySeverity,
   canalStatusLabel,
+  canalTitle,
   describeEvent,
   eventTypeLabel,
   fillLabel,
@@ -123,5 +124,14 @@ describe('the present module', () => {
   it('orders findings stops first, then cautions, then notes', () => {
     const list = [{ severity: 'note' as const }, { severity: 'stop' as const }, { severity: 'caution' as const }];
     expect(bySeverity(list).map((f) => f.severity)).toEqual(['stop', 'caution', 'note']);
+  });
+});
+
+describe('canalTitle', () => {
+  it('names a canal as a heading, and never says canal twice', () => {
+    expect(canalTitle('MB')).toBe('MB canal');
+    expect(canalTitle('Main')).toBe('Main canal');
+    expect(canalTitle('Canal')).toBe('Canal');
+    expect(canalTitle('MB2')).toBe('MB2 canal');
   });
 });
