@@ -39,7 +39,7 @@ if (!Number.isInteger(requestTimeoutMs) || requestTimeoutMs < 1000) {
   refuse('REQUEST_TIMEOUT_MS must be a whole number of milliseconds, at least 1000.');
 }
 const trustProxy = env.TRUST_PROXY === '1';
-const publicHost = env.PUBLIC_HOST?.trim() || undefined;
+const publicHost = env.PUBLIC_HOST?.trim().toLowerCase() || undefined;
 
 // The adapter's entry would start a server of its own unless told not to.
 env.ASTRO_NODE_AUTOSTART = 'disabled';

@@ -156,7 +156,7 @@ describe('HSTS', () => {
   it('is sent only for the public host over HTTPS, never for localhost or an address', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'coneline-hsts-'));
     const env = await tlsEnv(dir);
-    const tlsServer = await startServer({ env: { ...env, PUBLIC_HOST: 'coneline.school.example' } });
+    const tlsServer = await startServer({ env: { ...env, PUBLIC_HOST: 'Coneline.School.example' } });
     try {
       const port = Number(new URL(tlsServer.baseUrl).port);
       const ca = readFileSync(env.SERVER_CERT_PATH!, 'utf8');
