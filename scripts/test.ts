@@ -6,9 +6,10 @@ import { spawnSync } from 'node:child_process';
 import { existsSync, mkdirSync, readFileSync, rmSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { build } from './lib/build.ts';
+import { CHROMIUM_PATH } from './lib/chromium.ts';
 
 const root = resolve(import.meta.dirname, '..');
-const CHROMIUM = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
+const CHROMIUM = CHROMIUM_PATH;
 
 function run(cmd: string, args: string[], env: NodeJS.ProcessEnv = process.env): void {
   const r = spawnSync(cmd, args, { cwd: root, stdio: 'inherit', env });

@@ -17,18 +17,9 @@ import { chromium, type Page } from 'playwright-core';
 import { prepareDb } from '../lib/dbtasks.ts';
 import { startServer } from '../lib/server-process.ts';
 import { DEMO } from '../lib/api-client.ts';
+import { CHROMIUM_ARGS, CHROMIUM_PATH } from '../lib/chromium.ts';
 
 const TAPS = 200;
-const ARGS = [
-  '--headless',
-  '--no-sandbox',
-  '--disable-gpu',
-  '--disable-quic',
-  '--disable-background-networking',
-  '--disable-component-update',
-  '--disable-sync',
-  '--no-first-run',
-];
 
 /** Click in the page and resolve with the ms until the undo strip's save counter moves. */
 function timedTap(page: Page, selector: string): Promise<number> {
@@ -117,8 +108,8 @@ const template = join(dir, 'template.sqlite');
 await prepareDb(template, { seed: true });
 const server = await startServer({ templateDb: template });
 const browser = await chromium.launch({
-  executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
-  args: ARGS,
+  executablePath: CHROMIUM_PATH,
+  args: CHROMIUM_ARGS,
   headless: true,
 });
 try {

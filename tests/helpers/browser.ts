@@ -4,17 +4,9 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
 
-export const CHROMIUM_PATH = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
-const ARGS = [
-  '--headless',
-  '--no-sandbox',
-  '--disable-gpu',
-  '--disable-quic',
-  '--disable-background-networking',
-  '--disable-component-update',
-  '--disable-sync',
-  '--no-first-run',
-];
+import { CHROMIUM_ARGS as ARGS, CHROMIUM_PATH } from '../../scripts/lib/chromium';
+
+export { CHROMIUM_PATH };
 
 export function launchBrowser(): Promise<Browser> {
   return chromium.launch({ executablePath: CHROMIUM_PATH, args: ARGS, headless: true });

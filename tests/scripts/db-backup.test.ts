@@ -161,19 +161,8 @@ describe('npm run db:restore refuses', () => {
     const path = run('scripts/db-backup.ts').out.trim();
     const server = await startServer({ emptyDb: true, env: { DB_FILE: dbFile, DATA_DIR: data } });
     try {
-      // A sign-in attempt makes the server open its database, and so take the lock.
-      const csrf = await fetch(`${server.baseUrl}/api/auth/csrf`);
-      const cookie = csrf.headers
-        .getSetCookie()
-        .map((c) => c.split(';')[0])
-        .join('; ');
-      const { csrfToken } = (await csrf.json()) as { csrfToken: string };
-      await fetch(`${server.baseUrl}/api/auth/callback/credentials`, {
-        method: 'POST',
-        redirect: 'manual',
-        headers: { 'Content-Type': 'application/x-www-form-urlencoded', Origin: server.baseUrl, Cookie: cookie },
-        body: new URLSearchParams({ csrfToken, email: 'nobody@example.org', password: 'not-a-real-password' }),
-      });
+      // The server opens (and migrates) its database at start; /api/health answers once it has.
+      expect((await fetch(`${server.baseUrl}/api/health`)).status).toBe(200);
       const r = run('scripts/db-restore.ts', path);
       expect(r.code).toBe(1);
       expect(r.err).toContain('a Coneline server is running on this data folder');
