@@ -117,6 +117,7 @@ describe('the chairside island for gloved hands', () => {
     await page.getByRole('button', { name: 'apex locator' }).click();
     await page.getByTestId('cwl-ruler').locator('button[data-mm="21.5"]').click();
     await page.getByRole('button', { name: 'Correct the CWL (21.5 mm)' }).waitFor();
+    await d.card('taper');
     await expect(
       d.step().getByTestId('ruler').locator('button[data-mm="20.5"]').getAttribute('aria-label'),
     ).resolves.toContain('expected');

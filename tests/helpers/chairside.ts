@@ -17,8 +17,10 @@ export class Driver {
     await l.click();
     this.taps++;
   }
+  /** Waits for the card, and for taps on it to count (src/lib/client/tapGuard.ts ignores them for a moment after it changes). */
   async card(kind: string): Promise<void> {
     await this.page.locator(`[data-testid="step"][data-card="${kind}"]`).waitFor({ timeout: 20_000 });
+    await armed(this.page);
   }
   async answer(kind: string, name: string): Promise<void> {
     await this.card(kind);
@@ -28,6 +30,11 @@ export class Driver {
     await this.card(kind);
     await this.tap(this.step().getByTestId(testId).locator(`button[data-mm="${mm}"]`));
   }
+}
+
+/** Waits until the card on screen takes taps (its double-tap window has passed). */
+export async function armed(page: Page): Promise<void> {
+  await page.locator('[data-testid="step"][data-armed="true"]').waitFor({ timeout: 20_000 });
 }
 
 export async function openChairside(page: Page, baseUrl: string, email: string, ready = 'new-case'): Promise<void> {
@@ -93,6 +100,8 @@ export async function recordCanal(d: Driver, opts: { shortCone: boolean; check?:
   await d.page.getByTestId('compaction-complete').waitFor();
   await d.answer('spreader', 'Finish compaction');
   await d.answer('fill', 'Radiograph taken');
+  await d.step().getByRole('button', { name: '✓ Radiograph taken' }).waitFor();
+  await d.card('fill');
   await check();
   await d.tap(d.step().getByRole('button', { name: 'Flush' }));
   await d.tap(d.step().getByRole('button', { name: 'None' }));
@@ -155,6 +164,21 @@ export function readQueuedIds(): Promise<string[]> {
             .filter((r) => r.state === 'queued')
             .map((r) => r.event.id),
         );
+        open.result.close();
+      };
+    };
+  });
+}
+
+/** In the page: the type of every event recorded on this tablet, whoever recorded it. */
+export function readRecordedTypes(): Promise<string[]> {
+  return new Promise((resolve, reject) => {
+    const open = indexedDB.open('coneline-chairside');
+    open.onerror = () => reject(open.error);
+    open.onsuccess = () => {
+      const req = open.result.transaction('events').objectStore('events').getAll();
+      req.onsuccess = () => {
+        resolve((req.result as { event: { type: string } }[]).map((r) => r.event.type));
         open.result.close();
       };
     };

@@ -7,6 +7,7 @@ import { shownResult } from '../../lib/client/views';
 import { keepAwake } from '../../lib/client/wakeLock';
 import { CanalDiagram } from '../shared/CanalDiagram';
 import type { CardProps } from './cardTypes';
+import { useCardGuard } from './useCardGuard';
 import { CanalTimeline } from './CanalTimeline';
 import { CwlCorrection } from './CwlCorrection';
 import { FindingList, JustEntered } from './FindingList';
@@ -91,10 +92,14 @@ export function CanalStepper(props: {
   const lastHere = last && last.canalId === canal.canalId ? last : null;
   const verdict = lastHere ? findings.filter((f) => f.eventId === lastHere.eventId) : [];
   const cardKey = `${card.kind}-${events.length}`;
+  const guard = useCardGuard(cardKey);
 
   return (
-    <div className="grid gap-4 landscape:grid-cols-[minmax(0,1fr)_340px] portrait:grid-cols-1">
-      <div data-testid="step" data-card={card.kind}>
+    <div
+      className="grid gap-4 landscape:grid-cols-[minmax(0,1fr)_340px] portrait:grid-cols-1"
+      onClickCapture={guard.onClickCapture}
+    >
+      <div data-testid="step" data-card={card.kind} data-armed={guard.armed}>
         <div key={cardKey}>
           {renderCard(
             card,

@@ -19,6 +19,7 @@ import {
 import { deviceId as loadDeviceId, leave, resolveIdentity, type Identity } from './session';
 import { askToKeepData, type Persistence } from './storage';
 import { SyncLoop, type SyncStatus } from './syncLoop';
+import { RepeatFilter } from './tapGuard';
 import { limitRefusal } from './views';
 
 /** What the undo strip offers to withdraw: a recorded event, or a tablet-only mark. */
@@ -95,6 +96,7 @@ export interface ChairsideState {
 let loop: SyncLoop | null = null;
 let kickTimer: ReturnType<typeof setTimeout> | null = null;
 let undoKey = 0;
+const repeats = new RepeatFilter();
 
 export const useChairside = create<ChairsideState>((set, get) => {
   const uid = () => get().identity.user?.id ?? null;
@@ -185,6 +187,8 @@ export const useChairside = create<ChairsideState>((set, get) => {
       const id = uid();
       const caseId = opts.caseId ?? get().caseId;
       if (id === null || !caseId) return null;
+      // A double tap on one answer: the second arrives before the card has changed.
+      if (repeats.repeats(JSON.stringify([caseId, opts.canalId, type, data]), performance.now())) return null;
       // A newer app on an older server: record nothing the server would not understand.
       if (!serverKnows(type, get().identity.serverContract)) {
         set({ error: 'Not saved: the server does not know this step yet. Ask your clinic to update Coneline.' });
@@ -220,9 +224,9 @@ export const useChairside = create<ChairsideState>((set, get) => {
             type === 'event.voided'
               ? null
               : { key: ++undoKey, label: opts.label, eventId: event.id, canalId: opts.canalId },
-          last: opts.value
-            ? { eventId: event.id, canalId: opts.canalId, label: opts.label, value: opts.value }
-            : s.last,
+          // An entry with no value to show big (a withdrawal, say) clears the panel: what it
+          // showed may be the very answer just withdrawn.
+          last: opts.value ? { eventId: event.id, canalId: opts.canalId, label: opts.label, value: opts.value } : null,
         }));
       } catch (e) {
         set({ error: `Not saved on this tablet: ${e instanceof Error ? e.message : String(e)}` });
@@ -273,6 +277,8 @@ export const useChairside = create<ChairsideState>((set, get) => {
       set({
         marks,
         undo: finished ? { key: ++undoKey, label: 'compaction finished', finishedCanal: canalId } : get().undo,
+        // The last cone's length is no longer the news once compaction is finished.
+        last: finished ? null : get().last,
       });
       const id = uid();
       if (id !== null) void setMeta([id, 'marks'], marks);

@@ -6,6 +6,7 @@ import { LIMITS, LIMIT_MESSAGES } from '../../../src/lib/rules/index';
 import { closeDb } from '../../../src/lib/client/db';
 import { listEvents } from '../../../src/lib/client/outbox';
 import { useChairside } from '../../../src/lib/client/store';
+import { TAP_GUARD_MS } from '../../../src/lib/client/tapGuard';
 
 const USER = 5;
 const setUp = (name: string) => ({
@@ -106,5 +107,83 @@ describe('record', () => {
     }
     expect(await record('note.added', { text: 'one more' }, { label: 'note' })).toBeNull();
     expect(useChairside.getState().error).toBe(`Not saved: ${LIMIT_MESSAGES.caseLevelEventsPerCase}`);
+  });
+});
+
+describe('record, for a gloved double tap', () => {
+  it(`records the same answer tapped twice within ${TAP_GUARD_MS} ms once`, async () => {
+    const { record } = useChairside.getState();
+    const { canals } = await caseWithCanals(1);
+    const canalId = canals[0]!.canalId;
+    const seat = { fileSize: '35', lengthMm: 21, result: 'seated' } as const;
+    const before = (await listEvents(USER)).length;
+    // The second tap arrives before the first is saved, as an instant double tap does.
+    const [first, second] = await Promise.all([
+      record('seat.checked', seat, { canalId, label: 'seat check' }),
+      record('seat.checked', seat, { canalId, label: 'seat check' }),
+    ]);
+    expect(first).not.toBeNull();
+    expect(second).toBeNull();
+    expect(useChairside.getState().error).toBeNull();
+    expect(await listEvents(USER)).toHaveLength(before + 1);
+  });
+
+  it('records a different answer at once, and the same answer again once the window has passed', async () => {
+    const { record } = useChairside.getState();
+    const { canals } = await caseWithCanals(1);
+    const canalId = canals[0]!.canalId;
+    const clock = vi.spyOn(performance, 'now');
+    try {
+      clock.mockReturnValue(10_000);
+      const taper = (depthMm: number) =>
+        record('taper.checked', { spreader: 'MF', depthMm }, { canalId, label: 'taper check' });
+      expect(await taper(19.5)).not.toBeNull();
+      expect(await taper(19)).not.toBeNull();
+      clock.mockReturnValue(10_000 + TAP_GUARD_MS - 1);
+      expect(await taper(19)).toBeNull();
+      clock.mockReturnValue(10_000 + TAP_GUARD_MS);
+      expect(await taper(19)).not.toBeNull();
+    } finally {
+      clock.mockRestore();
+    }
+  });
+});
+
+describe('the value just entered', () => {
+  /** A seat check, then a taper check shown big; resolves to the canal and the seat check's id. */
+  async function entered() {
+    const { record } = useChairside.getState();
+    const { canals } = await caseWithCanals(1);
+    const canalId = canals[0]!.canalId;
+    const seat = await record(
+      'seat.checked',
+      { fileSize: '35', lengthMm: 21, result: 'seated' },
+      { canalId, label: 'seat check', value: 'Seats and holds' },
+    );
+    const taper = await record(
+      'taper.checked',
+      { spreader: 'MF', depthMm: 19.5 },
+      { canalId, label: 'taper check', value: '19.5 mm' },
+    );
+    expect(useChairside.getState().last).toMatchObject({ eventId: taper!.id, value: '19.5 mm' });
+    return { canalId, seatId: seat!.id };
+  }
+
+  it('clears when any answer is withdrawn, not only the one it shows', async () => {
+    const { canalId, seatId } = await entered();
+    await useChairside
+      .getState()
+      .record(
+        'event.voided',
+        { eventId: seatId, reason: 'Withdrawn from the timeline' },
+        { canalId, label: 'withdrawn' },
+      );
+    expect(useChairside.getState().last).toBeNull();
+  });
+
+  it('clears when compaction is finished', async () => {
+    const { canalId } = await entered();
+    useChairside.getState().setFinished(canalId, true);
+    expect(useChairside.getState().last).toBeNull();
   });
 });
