@@ -1,11 +1,14 @@
-import { useState } from 'react';
+import { lazy, useState } from 'react';
 import type { CaseInfo, TabletCase } from '../../lib/client/derive';
 import { useChairside } from '../../lib/client/store';
-import { CanalPicker } from './CanalPicker';
-import { CanalSetup } from './CanalSetup';
 import { CanalStepper } from './CanalStepper';
 import { CanalTabs } from './CanalTabs';
-import { Summary } from './Summary';
+import { Later } from './Later';
+
+// Set-up and finishing come once per canal or tooth: loaded when first opened (see ChairsideApp).
+const CanalPicker = lazy(() => import('./CanalPicker').then((m) => ({ default: m.CanalPicker })));
+const CanalSetup = lazy(() => import('./CanalSetup').then((m) => ({ default: m.CanalSetup })));
+const Summary = lazy(() => import('./Summary').then((m) => ({ default: m.Summary })));
 
 /** One open case: canal tabs, and below them the canal stepper, the canal set-up or the finishing card. */
 export function CaseView(props: { info: CaseInfo; tablet: TabletCase }) {
@@ -88,7 +91,9 @@ export function CaseView(props: { info: CaseInfo; tablet: TabletCase }) {
         }}
         onFinish={() => setView('finish')}
       />
-      <div className="p-3">{body}</div>
+      <div className="p-3">
+        <Later>{body}</Later>
+      </div>
     </div>
   );
 }

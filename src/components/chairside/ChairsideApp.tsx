@@ -1,15 +1,20 @@
-import { useEffect, useState } from 'react';
+import { lazy, Suspense, useEffect, useState } from 'react';
 import { SAFETY_LINE } from '../../lib/rules/core';
 import { registerServiceWorker } from '../../lib/client/pwa';
 import { useChairside } from '../../lib/client/store';
 import { StepCard } from './AnswerButtons';
 import { CaseList } from './CaseList';
 import { CaseView } from './CaseView';
-import { OpenCase } from './OpenCase';
+import { Later } from './Later';
 import { RejectedList } from './RejectedList';
-import { SignOutDialog } from './SignOutDialog';
 import { TopBar } from './TopBar';
 import { UndoStrip } from './UndoStrip';
+
+// Screens used once per case or per session load when first opened, so the first paint and
+// the open card keep within their budget (docs/architecture.md, "Chairside budget"). Every
+// chunk is precached, so they open offline too.
+const OpenCase = lazy(() => import('./OpenCase').then((m) => ({ default: m.OpenCase })));
+const SignOutDialog = lazy(() => import('./SignOutDialog').then((m) => ({ default: m.SignOutDialog })));
 
 /** The chairside island: who is working, which case, and the canal stepper. */
 export default function ChairsideApp() {
@@ -59,7 +64,12 @@ export default function ChairsideApp() {
         </a>
       </StepCard>
     );
-  } else if (creating && !caseId) body = <OpenCase onCancel={() => setCreating(false)} />;
+  } else if (creating && !caseId)
+    body = (
+      <Later>
+        <OpenCase onCancel={() => setCreating(false)} />
+      </Later>
+    );
   else if (!caseId || !info) body = <CaseList onNew={() => setCreating(true)} />;
   else body = <CaseView key={caseId} info={info} tablet={tablet} />;
 
@@ -112,7 +122,11 @@ export default function ChairsideApp() {
           {SAFETY_LINE}
         </p>
       </main>
-      {signingOut && <SignOutDialog onClose={() => setSigningOut(false)} />}
+      {signingOut && (
+        <Suspense fallback={null}>
+          <SignOutDialog onClose={() => setSigningOut(false)} />
+        </Suspense>
+      )}
       <UndoStrip />
     </div>
   );
