@@ -59,11 +59,7 @@ const answer = async (page: Page, kind: string, name: string) => {
 };
 const ruler = async (page: Page, kind: string, testId = 'ruler') => {
   await card(page, kind);
-  await page
-    .getByTestId('step')
-    .getByTestId(testId)
-    .getByRole('button', { name: /expected/ })
-    .click();
+  await page.getByTestId('step').getByTestId(testId).locator('button[data-mark]').click();
 };
 
 /** The workbox runtime file(s) sw.js imports. */
@@ -144,10 +140,7 @@ try {
   // A training block, one canal, up to the seated master cone.
   await page.getByRole('button', { name: 'Training block' }).click();
   await page.getByTestId('canals-confirm').click();
-  await page
-    .getByTestId('ruler-cwl')
-    .getByRole('button', { name: /expected/ })
-    .click();
+  await page.getByTestId('ruler-cwl').locator('button[data-mark]').click();
   await page.getByTestId('maf-30').click();
   await page.getByTestId('save-canal').click();
   await answer(page, 'seat', 'Seats and holds');
@@ -162,7 +155,7 @@ try {
   const times: number[] = [];
   for (let i = 0; i < TAPS / 2; i++) {
     await card(page, 'spreader');
-    times.push(await timedTap(page, '[data-testid="step"] [data-testid="ruler"] button[aria-label$="expected"]'));
+    times.push(await timedTap(page, '[data-testid="step"] [data-testid="ruler"] button[data-mark]'));
     await card(page, 'accessory');
     times.push(await timedTap(page, '[data-testid="step"] [data-testid="reached"]'));
   }

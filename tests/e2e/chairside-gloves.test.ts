@@ -109,10 +109,10 @@ describe('the chairside island for gloved hands', () => {
     const d = new Driver(page);
     await d.answer('seat', 'Seats and holds');
     await d.card('taper');
-    // Set up at 20.5 mm: the taper ruler expects CWL − 1 = 19.5.
+    // Set up at 20.5 mm: the taper ruler marks CWL − 1 = 19.5.
     await expect(
       d.step().getByTestId('ruler').locator('button[data-mm="19.5"]').getAttribute('aria-label'),
-    ).resolves.toContain('expected');
+    ).resolves.toBe('19.5 millimetres, the CWL less 1 mm');
     await page.getByRole('button', { name: 'Correct the CWL (20.5 mm)' }).click();
     await page.getByRole('button', { name: 'apex locator' }).click();
     await page.getByTestId('cwl-ruler').locator('button[data-mm="21.5"]').click();
@@ -120,7 +120,7 @@ describe('the chairside island for gloved hands', () => {
     await d.card('taper');
     await expect(
       d.step().getByTestId('ruler').locator('button[data-mm="20.5"]').getAttribute('aria-label'),
-    ).resolves.toContain('expected');
+    ).resolves.toBe('20.5 millimetres, the CWL less 1 mm');
     await page.getByRole('button', { name: /^Timeline/ }).click();
     await expect(page.getByTestId('timeline').textContent()).resolves.toContain('CWL corrected to 21.5');
     expect(await undersized(page)).toEqual([]);

@@ -1,6 +1,6 @@
 import { useState } from 'react';
 import { averageLengthMm, ISO_SIZES, referencePointsFor } from '../../lib/rules/core';
-import { preparationLabel } from '../../lib/present/labels';
+import { canalTitle, preparationLabel } from '../../lib/present/labels';
 import { newId } from '../../lib/client/ids';
 import { clampLength } from '../../lib/client/flow';
 import { useChairside } from '../../lib/client/store';
@@ -58,7 +58,7 @@ export function CanalSetup(props: {
     };
     const ev = await record('canal.added', data, {
       canalId,
-      label: `canal ${props.name} set up`,
+      label: `${canalTitle(props.name)} set up`,
       value: `CWL ${mm(cwl)} mm`,
     });
     if (ev) props.onDone(canalId);
@@ -66,7 +66,7 @@ export function CanalSetup(props: {
 
   return (
     <StepCard
-      title={`Set up canal ${props.name}`}
+      title={`Set up the ${canalTitle(props.name)}`}
       hint={
         props.remaining > 0
           ? `${props.remaining} more canal${props.remaining === 1 ? '' : 's'} after this one.`
@@ -94,7 +94,11 @@ export function CanalSetup(props: {
       <RulerStrip
         label="CWL"
         centre={cwlCentre}
-        expected={cwlCentre}
+        mark={
+          block
+            ? { mm: cwlCentre, word: 'typical', meaning: 'a typical training-block length' }
+            : { mm: cwlCentre, word: 'avg − 1', meaning: 'the textbook average length less 1 mm' }
+        }
         selected={cwl}
         onTap={setCwl}
         testId="ruler-cwl"
@@ -147,7 +151,7 @@ export function CanalSetup(props: {
       )}
       <Answers>
         <Answer tone="primary" disabled={!ready} onTap={() => void save()} testId="save-canal">
-          Save canal {props.name}
+          Save the {canalTitle(props.name)}
         </Answer>
         <Answer onTap={props.onCancel}>Cancel</Answer>
       </Answers>

@@ -40,7 +40,7 @@ export function CwlCorrection({ canalId, cwlMm }: { canalId: string; cwlMm: numb
           <RulerStrip
             label="New CWL"
             centre={cwlMm}
-            expected={cwlMm}
+            mark={{ mm: cwlMm, word: 'now', meaning: 'the CWL now' }}
             testId="cwl-ruler"
             onTap={(v) => void correct(v)}
           />

@@ -24,7 +24,11 @@ export function SpreaderCard(props: CardProps & { cycle: number; centre: number;
       <RulerStrip
         label="Spreader depth"
         centre={centre}
-        expected={centre}
+        mark={
+          cycle === 1
+            ? { mm: centre, word: 'CWL − 2', meaning: 'the CWL less 2 mm' }
+            : { mm: centre, word: 'last depth', meaning: 'the last spreader depth' }
+        }
         onTap={(v) => {
           setReplace(canal.canalId, false);
           void rec('spreader.placed', { spreader, depthMm: v }, `spreader, cycle ${cycle}`, `${mm(v)} mm`);
@@ -71,7 +75,7 @@ export function AccessoryCard(props: CardProps & { cycle: number; depthMm: numbe
       <RulerStrip
         label="Cone measured to"
         centre={depthMm}
-        expected={depthMm}
+        mark={{ mm: depthMm, word: 'spreader', meaning: 'the spreader depth' }}
         selected={length}
         onTap={setLength}
         testId="ruler-accessory"

@@ -35,7 +35,7 @@ export function TaperCard({ canal, rec, centre }: CardProps & { centre: number }
       <RulerStrip
         label="Spreader depth"
         centre={centre}
-        expected={centre}
+        mark={{ mm: centre, word: 'CWL − 1', meaning: 'the CWL less 1 mm' }}
         onTap={(v) => rec('taper.checked', { spreader, depthMm: v }, 'taper check', `${mm(v)} mm`)}
       />
     </StepCard>
@@ -136,7 +136,7 @@ export function DryCard({ canal, rec, centre }: CardProps & { centre: number }) 
       <RulerStrip
         label="Paper point length"
         centre={centre}
-        expected={centre}
+        mark={{ mm: centre, word: 'CWL', meaning: 'the CWL' }}
         onTap={(v) => rec('canal.dried', { pointSize: point, measuredMm: v }, 'paper points', `${mm(v)} mm`)}
       />
     </StepCard>
@@ -165,27 +165,32 @@ export function MasterCard({ canal, rec, centre, refit }: CardProps & { centre: 
       <RulerStrip
         label="Cone length"
         centre={centre}
-        expected={centre}
+        mark={{ mm: centre, word: 'CWL', meaning: 'the CWL' }}
         selected={length}
         onTap={setLength}
         testId="ruler-master"
       />
-      <ChipGroup label="Tug-back (optional)">
-        <Chip selected={tugBack === true} onTap={() => setTugBack(tugBack === true ? undefined : true)}>
-          Yes
-        </Chip>
-        <Chip selected={tugBack === false} onTap={() => setTugBack(tugBack === false ? undefined : false)}>
-          No
-        </Chip>
-      </ChipGroup>
-      <Answers>
-        <Answer tone="primary" disabled={length === undefined} onTap={() => fit(true)}>
-          Reached
-        </Answer>
-        <Answer tone="warn" disabled={length === undefined} onTap={() => fit(false)}>
-          Short
-        </Answer>
-      </Answers>
+      {/* Tug-back beside the answers: one row less, so the answers stay on screen upright and sideways. */}
+      <div className="flex flex-wrap items-end gap-x-6">
+        <ChipGroup label="Tug-back (optional)">
+          <Chip selected={tugBack === true} onTap={() => setTugBack(tugBack === true ? undefined : true)}>
+            Yes
+          </Chip>
+          <Chip selected={tugBack === false} onTap={() => setTugBack(tugBack === false ? undefined : false)}>
+            No
+          </Chip>
+        </ChipGroup>
+        <div className="mb-3">
+          <Answers>
+            <Answer tone="primary" disabled={length === undefined} onTap={() => fit(true)}>
+              Reached
+            </Answer>
+            <Answer tone="warn" disabled={length === undefined} onTap={() => fit(false)}>
+              Short
+            </Answer>
+          </Answers>
+        </div>
+      </div>
     </StepCard>
   );
 }
