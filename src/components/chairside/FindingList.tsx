@@ -51,7 +51,10 @@ export function JustEntered(props: { label: string; value: string; findings: Fin
     <div className="flex flex-wrap items-center gap-4 my-2" aria-live="polite" data-testid="just-entered">
       <div>
         <p className="text-sm text-muted">{props.label}</p>
-        <p className="text-5xl font-bold tabular leading-none">{props.value}</p>
+        {/* A length is shown at 48 px; a phrase (a sear level in words) at 40 px, so it wraps less. */}
+        <p className={`${props.value.length > 12 ? 'text-[2.5rem]' : 'text-5xl'} font-bold tabular leading-none`}>
+          {props.value}
+        </p>
       </div>
       <div className="text-lg">
         {props.findings.length === 0 ? (

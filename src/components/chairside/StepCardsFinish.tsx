@@ -1,4 +1,5 @@
 import { useState } from 'react';
+import { cejLevel } from '../../lib/present/format';
 import { canalTitle } from '../../lib/present/labels';
 import { useChairside } from '../../lib/client/store';
 import { Answer, Answers, Chip, ChipGroup, StepCard } from './AnswerButtons';
@@ -69,27 +70,36 @@ export function FillCard(props: CardProps & { radiographTaken: boolean; needsRad
   );
 }
 
+/** A CEJ level on the ruler: the distance big, and below, above or at the CEJ under it. */
+const readCej = (v: number) => ({
+  big: v === 0 ? '0' : mm(Math.abs(v)),
+  small: v === 0 ? 'at CEJ' : v > 0 ? 'below' : 'above',
+  spoken: cejLevel(v),
+});
+
 export function SearCard({ rec, setting }: CardProps) {
   const [cej, setCej] = useState<number | undefined>();
   const tooth = setting !== 'block';
   const sear = (atOrifice: boolean) => {
     const data = { atOrifice, ...(tooth && cej !== undefined ? { relativeToCejMm: cej } : {}) };
     const where = atOrifice ? 'At the orifice' : 'Elsewhere';
-    void rec('gp.seared', data, 'sear-off', cej !== undefined ? `${where}, ${mm(cej)} mm` : where);
+    void rec('gp.seared', data, 'sear-off', cej !== undefined ? `${where}, ${cejLevel(cej)}` : where);
   };
   return (
     <StepCard
       title="Where did you sear off the gutta-percha?"
-      hint={tooth ? 'Optional: the level relative to the CEJ (+ below, − above), then where.' : undefined}
+      hint={tooth ? 'Optional: how far below or above the CEJ you seared, then where.' : undefined}
     >
       {tooth && (
         <RulerStrip
-          label="Level relative to the CEJ"
+          label="Sear level"
+          unit="(mm from the CEJ)"
           centre={0.5}
           span={2.5}
           min={-2}
           max={3}
           selected={cej}
+          read={readCej}
           onTap={(v) => setCej(cej === v ? undefined : v)}
           testId="ruler-cej"
         />

@@ -1,6 +1,6 @@
 // One line in our own words for each recorded event: the canal's timeline on the tablet and
 // on the case page.
-import { mm } from './format';
+import { cejLevel, mm } from './format';
 import {
   canalTitle,
   fillLabel,
@@ -18,6 +18,10 @@ export interface DescribedEvent {
   type: string;
   data?: object;
 }
+
+/** The reason a withdrawal or removal gives, as ": reason", or nothing. */
+const why = (data: Record<string, unknown>): string =>
+  typeof data.reason === 'string' && data.reason.trim() ? `: ${data.reason.trim()}` : '';
 
 /** One line for an event, e.g. "Spreader MF: 17.0 mm" or "Radiograph taken (MAF)". */
 export function describeEvent(e: DescribedEvent): string {
@@ -52,7 +56,7 @@ export function describeEvent(e: DescribedEvent): string {
       return `Fill check: ${fillLabel(s('length'))}, ${data.voids ? 'voids seen' : 'no voids'}`;
     case 'gp.seared': {
       const cej = data.relativeToCejMm;
-      return `Seared ${data.atOrifice ? 'at the orifice' : 'elsewhere'}${typeof cej === 'number' ? ` (${cej.toFixed(1)} mm to the CEJ)` : ''}`;
+      return `Seared ${data.atOrifice ? 'at the orifice' : 'elsewhere'}${typeof cej === 'number' ? `, ${cejLevel(cej)}` : ''}`;
     }
     case 'chamber.cleaned':
       return `Chamber cleaned (${s('agent')})`;
@@ -61,15 +65,39 @@ export function describeEvent(e: DescribedEvent): string {
     case 'access.restored':
       return `Access restored (${restorationLabel(s('kind'))})`;
     case 'accessory.removed':
-      return 'Short cone removed';
+      return `Short cone removed${why(data)}`;
     case 'note.added':
       return 'Note';
     case 'event.voided':
-      return 'Withdrawn';
+      return `Withdrawn${why(data)}`;
     case 'case.submitted':
       return 'Submitted for review';
     default:
       // A type from a newer server: its words, without the label table the tablet never needs.
       return plainWords(e.type);
   }
+}
+
+/**
+ * What was withdrawn (an `event.voided`) or taken out (an `accessory.removed`) and why, in
+ * the order recorded: "Taper check, spreader MF: 19.5 mm — withdrawn: Undone on the tablet".
+ * `events` are every event of the case or canal as stored, voided ones included.
+ */
+export function withdrawals(
+  events: readonly (DescribedEvent & { id: string })[],
+): { id: string; what: string; why: string; kind: 'withdrawn' | 'removed' }[] {
+  const byId = new Map(events.map((e) => [e.id, e]));
+  const out: { id: string; what: string; why: string; kind: 'withdrawn' | 'removed' }[] = [];
+  for (const e of events) {
+    const data = (e.data ?? {}) as { eventId?: unknown; reason?: unknown };
+    if (e.type !== 'event.voided' && e.type !== 'accessory.removed') continue;
+    const target = typeof data.eventId === 'string' ? byId.get(data.eventId) : undefined;
+    out.push({
+      id: e.id,
+      kind: e.type === 'event.voided' ? 'withdrawn' : 'removed',
+      what: target ? describeEvent(target) : 'An answer no longer on this record',
+      why: typeof data.reason === 'string' && data.reason.trim() ? data.reason.trim() : 'no reason given',
+    });
+  }
+  return out;
 }

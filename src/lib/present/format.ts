@@ -10,6 +10,16 @@ export function mm(value: unknown): string {
   return typeof value === 'number' && Number.isFinite(value) ? `${mmValue(value)} mm` : '—';
 }
 
+/**
+ * A sear level relative to the CEJ in words, the one wording every screen uses (the stored
+ * value is positive below the CEJ, negative above): 1 → "1.0 mm below the CEJ",
+ * -0.5 → "0.5 mm above the CEJ", 0 → "at the CEJ". No signs, so no plus or minus to misread.
+ */
+export function cejLevel(relativeToCejMm: number): string {
+  if (relativeToCejMm === 0) return 'at the CEJ';
+  return `${mmValue(Math.abs(relativeToCejMm))} mm ${relativeToCejMm > 0 ? 'below' : 'above'} the CEJ`;
+}
+
 /** The clinic's time zone (IANA) and locale (BCP 47): every date and time is shown in these. */
 export interface Clinic {
   timeZone: string;

@@ -133,3 +133,11 @@ export const severityWord = (v: string): string => look(SEVERITY_WORD, v);
 export function canalTitle(name: string): string {
   return /canal/i.test(name) ? name : `${name} canal`;
 }
+
+/**
+ * A tooth as a heading: "Tooth 36", or with its Universal number "Tooth 36 (Universal 19)".
+ * The caller passes the Universal number (the rules core's fdiToUniversal) when it is shown.
+ */
+export function toothTitle(fdi: number, universal?: string): string {
+  return universal ? `Tooth ${fdi} (Universal ${universal})` : `Tooth ${fdi}`;
+}

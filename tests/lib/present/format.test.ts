@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { clinicProblem, DEFAULT_CLINIC, formatInstant, mm } from '../../../src/lib/present/format';
+import { cejLevel, clinicProblem, DEFAULT_CLINIC, formatInstant, mm } from '../../../src/lib/present/format';
 
 describe('formatInstant', () => {
   // Invented times. Auckland is 13 h ahead of UTC in March (daylight saving), so late evening
@@ -39,5 +39,14 @@ describe('mm', () => {
   it('shows one decimal and the unit, and a dash for no value', () => {
     expect(mm(17)).toBe('17.0 mm');
     expect(mm(undefined)).toBe('—');
+  });
+});
+
+describe('cejLevel', () => {
+  it('says how far below or above the CEJ, in words and without a sign', () => {
+    expect(cejLevel(1)).toBe('1.0 mm below the CEJ');
+    expect(cejLevel(-0.5)).toBe('0.5 mm above the CEJ');
+    expect(cejLevel(0)).toBe('at the CEJ');
+    for (let v = -5; v <= 5; v += 0.5) expect(cejLevel(v)).not.toMatch(/[-+−]/);
   });
 });

@@ -16,6 +16,7 @@ import {
   bySeverity,
   canalStatusLabel,
   canalTitle,
+  toothTitle,
   describeEvent,
   eventTypeLabel,
   fillLabel,
@@ -133,5 +134,12 @@ describe('canalTitle', () => {
     expect(canalTitle('Main')).toBe('Main canal');
     expect(canalTitle('Canal')).toBe('Canal');
     expect(canalTitle('MB2')).toBe('MB2 canal');
+  });
+});
+
+describe('toothTitle', () => {
+  it('names a tooth as a heading, with its Universal number spelt out when shown', () => {
+    expect(toothTitle(36)).toBe('Tooth 36');
+    expect(toothTitle(36, '19')).toBe('Tooth 36 (Universal 19)');
   });
 });
