@@ -103,8 +103,8 @@ export function Summary(props: { info: CaseInfo; tablet: TabletCase }) {
               className="bg-white rounded-2xl border border-line p-3"
             >
               <h2 className="text-xl font-bold">{canalTitle(c.name)}</h2>
-              <div className="grid grid-cols-[160px_1fr] gap-3">
-                {shown.result && <CanalDiagram state={shown.result.state} />}
+              <div className="grid grid-cols-[minmax(0,14rem)_1fr] gap-3">
+                {shown.result && <CanalDiagram state={shown.result.state} compact />}
                 <FindingList findings={shown.result?.findings ?? []} source={shown.source} />
               </div>
             </section>
