@@ -74,7 +74,10 @@ export function ChipGroup({ label, children }: { label: string; children: ReactN
 /** The card frame: one question per card. */
 export function StepCard({ title, hint, children }: { title: string; hint?: ReactNode; children: ReactNode }) {
   return (
-    <section aria-labelledby="step-title" className="bg-white rounded-2xl border-2 border-gutta p-4 shadow-sm">
+    <section
+      aria-labelledby="step-title"
+      className="bg-white rounded-2xl border-2 border-gutta p-4 landscape:py-3 shadow-sm"
+    >
       <h2 id="step-title" className="text-2xl font-bold mb-1">
         {title}
       </h2>

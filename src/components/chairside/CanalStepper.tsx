@@ -5,6 +5,7 @@ import { nextCard, type Card } from '../../lib/client/flow';
 import { useChairside } from '../../lib/client/store';
 import { shownResult } from '../../lib/client/views';
 import { keepAwake } from '../../lib/client/wakeLock';
+import { canalTitle } from '../../lib/present/labels';
 import { CanalDiagram } from '../shared/CanalDiagram';
 import type { CardProps } from './cardTypes';
 import { useCardGuard } from './useCardGuard';
@@ -95,8 +96,10 @@ export function CanalStepper(props: {
   const guard = useCardGuard(cardKey);
 
   return (
+    // The diagram stays beside the card, upright too (a narrower column), so the answers and the
+    // diagram are both on screen without scrolling; below it only on a narrow phone.
     <div
-      className="grid gap-4 landscape:grid-cols-[minmax(0,1fr)_340px] portrait:grid-cols-1"
+      className="grid gap-3 grid-cols-1 sm:grid-cols-[minmax(0,1fr)_16rem] landscape:grid-cols-[minmax(0,1fr)_340px] items-start"
       onClickCapture={guard.onClickCapture}
     >
       <div data-testid="step" data-card={card.kind} data-armed={guard.armed}>
@@ -116,8 +119,8 @@ export function CanalStepper(props: {
         <CanalTimeline canal={canal} />
       </div>
       <aside
-        aria-label={`Diagram of canal ${canal.name}`}
-        className="bg-white rounded-2xl border border-line p-3 portrait:max-w-md"
+        aria-label={`Diagram of the ${canalTitle(canal.name)}`}
+        className="bg-white rounded-2xl border border-line p-2 landscape:p-3"
       >
         {state ? <CanalDiagram state={state} /> : <p className="text-muted">No diagram yet.</p>}
       </aside>

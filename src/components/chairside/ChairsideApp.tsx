@@ -1,12 +1,11 @@
-import { lazy, Suspense, useEffect, useState } from 'react';
-import { SAFETY_LINE } from '../../lib/rules/core';
+import { lazy, Suspense, useEffect, useLayoutEffect, useState } from 'react';
 import { registerServiceWorker } from '../../lib/client/pwa';
 import { useChairside } from '../../lib/client/store';
 import { StepCard } from './AnswerButtons';
 import { CaseList } from './CaseList';
 import { CaseView } from './CaseView';
 import { Later } from './Later';
-import { RejectedList } from './RejectedList';
+import { SafetyNote, SHELL_ID } from './Shell';
 import { TopBar } from './TopBar';
 import { UndoStrip } from './UndoStrip';
 
@@ -14,6 +13,7 @@ import { UndoStrip } from './UndoStrip';
 // the open card keep within their budget (docs/architecture.md, "Chairside budget"). Every
 // chunk is precached, so they open offline too.
 const OpenCase = lazy(() => import('./OpenCase').then((m) => ({ default: m.OpenCase })));
+const RejectedList = lazy(() => import('./RejectedList').then((m) => ({ default: m.RejectedList })));
 const SignOutDialog = lazy(() => import('./SignOutDialog').then((m) => ({ default: m.SignOutDialog })));
 
 /** The chairside island: who is working, which case, and the canal stepper. */
@@ -24,6 +24,10 @@ export default function ChairsideApp() {
   const tablet = useChairside((s) => s.tablet);
   const error = useChairside((s) => s.error);
   const persistence = useChairside((s) => s.persistence);
+  // Rare, so its list loads only when there is something to show.
+  const anyRejected = useChairside((s) =>
+    s.rows.some((r) => r.state === 'rejected' && (!s.caseId || r.event.caseId === s.caseId)),
+  );
   const openCase = useChairside((s) => s.openCase);
   const [creating, setCreating] = useState(false);
   const [signingOut, setSigningOut] = useState(false);
@@ -36,9 +40,15 @@ export default function ChairsideApp() {
 
   const info = tablet.caseId === caseId ? tablet.info : null;
 
+  // The page was served with a static shell (src/pages/chairside.astro): it stays until the
+  // tablet's log is open, and goes in the same frame as this island's first screen appears.
+  useLayoutEffect(() => {
+    if (phase !== 'loading') document.getElementById(SHELL_ID)?.remove();
+  }, [phase]);
+  if (phase === 'loading') return null;
+
   let body;
-  if (phase === 'loading') body = <p className="text-lg">Opening the log on this tablet…</p>;
-  else if (!identity.user) {
+  if (!identity.user) {
     body = (
       <StepCard
         title={identity.signedOut ? 'Sign in to record' : 'Sign in first'}
@@ -83,6 +93,7 @@ export default function ChairsideApp() {
         }}
         onSignOut={() => setSigningOut(true)}
       />
+      <SafetyNote />
       {update && (
         <div className="bg-note text-white px-4 py-2 flex items-center gap-4" role="status">
           <p className="text-lg">A new version of Coneline is ready.</p>
@@ -104,23 +115,27 @@ export default function ChairsideApp() {
           to send it.
         </p>
       )}
-      <main id="main" className="flex-1 pb-28">
+      <main id="main" className="flex-1 flex flex-col pb-28">
         {error && (
           <p role="alert" className="mx-3 mt-3 p-3 border-2 border-stop bg-white text-stop font-bold">
             {error}
           </p>
         )}
-        {persistence === 'refused' && identity.user && (
-          <p className="mx-3 mt-3 text-base border-l-4 border-caution pl-3" data-testid="storage-note">
-            This browser has not promised to keep Coneline&apos;s data: if the tablet runs short of storage it may clear
-            records that are not yet sent. Sync soon.
-          </p>
-        )}
         <div className="p-3">{body}</div>
-        <RejectedList caseId={caseId} />
-        <p className="mx-3 text-base text-muted border-l-4 border-line pl-3" data-testid="safety-line">
-          {SAFETY_LINE}
-        </p>
+        {/* Below the screen's own content, so that what arrives late moves nothing on screen. */}
+        <div className="mt-auto">
+          {anyRejected && (
+            <Suspense fallback={null}>
+              <RejectedList caseId={caseId} />
+            </Suspense>
+          )}
+          {persistence === 'refused' && identity.user && (
+            <p className="mx-3 text-base border-l-4 border-caution pl-3" data-testid="storage-note">
+              This browser has not promised to keep Coneline&apos;s data: if the tablet runs short of storage it may
+              clear records that are not yet sent. Sync soon.
+            </p>
+          )}
+        </div>
       </main>
       {signingOut && (
         <Suspense fallback={null}>

@@ -16,7 +16,10 @@ function useOnline(): boolean {
   return online;
 }
 
-/** The sync state, always on screen, with "Sync now". */
+/**
+ * The sync state, always on screen, in two short lines of a fixed width (so the top bar
+ * keeps one row and nothing beside it moves when the state changes), with "Sync now".
+ */
 export function SyncBadge() {
   const rows = useChairside((s) => s.rows);
   const sync = useChairside((s) => s.sync);
@@ -25,50 +28,48 @@ export function SyncBadge() {
   const online = useOnline();
   const waiting = rows.filter((r) => r.state === 'queued').length;
   const rejected = rows.filter((r) => r.state === 'rejected').length;
-  let text: string;
+  let head: string;
+  let detail: string;
   let state: string;
   if (signedOut) {
-    text = `signed out · ${waiting} waiting`;
-    state = 'signed-out';
+    [head, detail, state] = ['signed out', `${waiting} waiting`, 'signed-out'];
   } else if (!online || sync.phase === 'offline') {
-    text = waiting ? `offline · ${waiting} saved on this tablet, waiting` : 'offline · nothing waiting';
-    state = 'offline';
+    [head, detail, state] = ['offline', waiting ? `${waiting} saved on this tablet` : 'nothing waiting', 'offline'];
   } else if (sync.phase === 'syncing') {
-    text = `syncing ${waiting}…`;
-    state = 'syncing';
+    [head, detail, state] = ['syncing…', `${waiting} waiting`, 'syncing'];
   } else if (sync.phase === 'other-user') {
-    text = `another user is signed in · ${waiting} kept, not sent`;
-    state = 'other-user';
+    [head, detail, state] = ['another user', `${waiting} kept, not sent`, 'other-user'];
   } else if (sync.phase === 'error') {
-    text = `${waiting} waiting · sync failed, will retry`;
-    state = 'error';
+    [head, detail, state] = ['sync failed', `${waiting} waiting, will retry`, 'error'];
   } else if (waiting > 0) {
-    text = `${waiting} waiting`;
-    state = 'waiting';
+    [head, detail, state] = [`${waiting} waiting`, 'saved on this tablet', 'waiting'];
   } else {
-    text = 'all synced';
-    state = 'synced';
+    [head, detail, state] = ['all synced', 'nothing waiting', 'synced'];
   }
+  if (rejected > 0) detail = `${rejected} not accepted`;
   return (
-    <div className="flex items-center gap-2">
+    <div className="flex items-center gap-2 shrink-0">
       <p
         role="status"
         aria-live="polite"
         data-testid="sync-state"
         data-state={state}
         data-waiting={waiting}
-        className="text-base font-bold px-3 py-2 rounded-lg border-2 border-ink bg-paper tabular"
+        className="w-40 px-2 py-1 rounded-lg border-2 border-ink bg-paper tabular leading-tight"
       >
-        {text}
-        {rejected > 0 ? ` · ${rejected} not accepted` : ''}
+        <span className="block font-bold truncate">{head}</span>
+        <span className="block text-sm truncate">{detail}</span>
       </p>
       <button
         type="button"
         onClick={() => void syncNow()}
         disabled={!online}
-        className="min-h-14 min-w-14 px-3 rounded-lg border-2 border-ink bg-white font-bold disabled:opacity-60"
+        aria-label="Sync now"
+        className="min-h-14 min-w-14 px-2 rounded-lg border-2 border-ink bg-white font-bold leading-tight disabled:opacity-60"
       >
-        Sync now
+        Sync
+        <br />
+        now
       </button>
     </div>
   );
