@@ -130,9 +130,8 @@ export default function ChairsideApp() {
             </Suspense>
           )}
           {persistence === 'refused' && identity.user && (
-            <p className="mx-3 text-base border-l-4 border-caution pl-3" data-testid="storage-note">
-              This browser has not promised to keep Coneline&apos;s data: if the tablet runs short of storage it may
-              clear records that are not yet sent. Sync soon.
+            <p className="mx-3 text-sm border-l-4 border-caution pl-3" data-testid="storage-note">
+              This browser may clear records not yet sent if the tablet runs short of storage: sync soon.
             </p>
           )}
         </div>

@@ -47,7 +47,7 @@ export function Shell() {
           <h2 id="loading-title" className="text-2xl font-bold mb-1">
             Loading your cases…
           </h2>
-          <p className="text-base text-muted mb-3">
+          <p className="text-lg text-muted mb-3">
             The log on this tablet opens in a moment, with or without a network.
           </p>
           <div className="h-16 w-56 rounded-xl bg-paper border-2 border-line" aria-hidden="true" />
