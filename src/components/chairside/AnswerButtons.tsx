@@ -64,7 +64,7 @@ export function Chip(props: {
 /** A labelled group of chips. */
 export function ChipGroup({ label, children }: { label: string; children: ReactNode }) {
   return (
-    <fieldset className="mb-3">
+    <fieldset className="mb-2">
       <legend className="text-base font-bold mb-1">{label}</legend>
       <div className="flex flex-wrap gap-2">{children}</div>
     </fieldset>
@@ -81,7 +81,7 @@ export function StepCard({ title, hint, children }: { title: string; hint?: Reac
       <h2 id="step-title" className="text-2xl font-bold mb-1">
         {title}
       </h2>
-      {hint && <p className="text-base text-muted mb-3">{hint}</p>}
+      {hint && <p className="text-base text-muted mb-2">{hint}</p>}
       {children}
     </section>
   );

@@ -12,7 +12,7 @@ export function CanalTabs(props: {
   onFinish: () => void;
 }) {
   const tab = (active: boolean) =>
-    `min-h-16 landscape:min-h-14 min-w-24 px-4 rounded-t-xl border-2 border-b-0 text-xl font-bold ${active ? 'bg-white border-gutta-strong text-ink' : 'bg-paper border-edge text-ink'}`;
+    `min-h-16 min-w-24 px-4 rounded-t-xl border-2 border-b-0 text-xl font-bold ${active ? 'bg-white border-gutta-strong text-ink' : 'bg-paper border-edge text-ink'}`;
   return (
     <nav aria-label="Canals" className="flex flex-wrap gap-2 px-3 pt-3 landscape:pt-2 border-b-2 border-gutta-strong">
       {props.canals.map((c) => {

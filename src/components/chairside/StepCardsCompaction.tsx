@@ -87,7 +87,7 @@ export function AccessoryCard(props: CardProps & { cycle: number; depthMm: numbe
         <Answer tone="warn" onTap={() => place(false)} testId="stopped-short">
           Stopped short
         </Answer>
-        {redo && <Answer onTap={() => setReplace(canal.canalId, true)}>Re-place the spreader first</Answer>}
+        {redo && <Answer onTap={() => setReplace(canal.canalId, true)}>Re-place the spreader</Answer>}
       </Answers>
     </StepCard>
   );

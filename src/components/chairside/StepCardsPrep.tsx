@@ -180,7 +180,7 @@ export function MasterCard({ canal, rec, centre, refit }: CardProps & { centre: 
             No
           </Chip>
         </ChipGroup>
-        <div className="mb-3">
+        <div className="mb-2">
           <Answers>
             <Answer tone="primary" disabled={length === undefined} onTap={() => fit(true)}>
               Reached
