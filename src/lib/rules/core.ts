@@ -59,7 +59,16 @@ export {
 export type { IsoColourName } from './sizes';
 export { isValidFdi, fdiToUniversal, universalToFdi, toothGroup, toothName } from './teeth';
 export type { ToothGroup, ToothKind } from './teeth';
-export { usualCanals, referencePointsFor, averageLengthMm, SINGLE_CANAL } from './anatomy';
+export {
+  usualCanals,
+  pickCanal,
+  referencePointsFor,
+  averageLengthMm,
+  SINGLE_CANAL,
+  SECOND_CANAL_PAIR,
+  AVERAGE_LENGTHS,
+} from './anatomy';
+export type { AverageLength } from './anatomy';
 export {
   workingLengthByDiscrepancy,
   workingLengthFromApexLocator,
