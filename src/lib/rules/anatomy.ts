@@ -91,7 +91,8 @@ export function referencePointsFor(n: number | undefined): string[] {
 }
 
 const GROSSMAN_13_2 = "Grossman's Endodontic Practice 2020, table 13.2";
-const WHEELER = "Wheeler's Dental Anatomy, Physiology and Occlusion (crown + root length)";
+// Wheeler's figures are crown + root length.
+const WHEELER = "Wheeler's Dental Anatomy, Physiology and Occlusion";
 
 /** An average tooth length in mm with its source and label (docs/references.md, "Teeth"). */
 export interface AverageLength extends Sourced {

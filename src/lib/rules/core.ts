@@ -19,6 +19,7 @@ export { LIMITS, LIMIT_MESSAGES, CaseTally, tallyOf, tallyEvent } from './limits
 export type { CaseLimit, LimitBreach, TallyEvent } from './limits';
 export {
   DEFAULT_TOLERANCES,
+  TOLERANCE_LABELS,
   TOLERANCE_SOURCES,
   TOLERANCE_RANGES,
   resolveTolerances,
@@ -38,6 +39,9 @@ export {
 } from './lifecycle';
 export type { CaseState, CaseAction, Refusal as LifecycleRefusal } from './lifecycle';
 export type { Tolerances } from './tolerances';
+export { SOURCE_LABELS } from './labels';
+export type { SourceLabel, Sourced, LabelledValue } from './labels';
+export { referenceValues } from './reference-values';
 export { FINDINGS, FINDING_CODES, SAFETY_LINE } from './findings';
 export type { Severity, FindingCode, Finding, FindingInfo } from './findings';
 export { evaluateCanal, readCanal } from './evaluate';

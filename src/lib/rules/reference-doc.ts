@@ -56,7 +56,7 @@ export function renderRulesDoc(): string {
     '',
     `> ${SAFETY_LINE}`,
     '',
-    'Severity: **stop** must be put right before the canal can be signed off; **caution** the attending must see; **note** is information. "Tooth:" marks checks that do not apply to a training block. Source labels (seen, partly, memory, practice) are those of [references.md](references.md).',
+    'Severity: **stop** must be put right before the canal can be signed off; **caution** the attending must see; **note** is information. "Tooth:" marks checks that do not apply to a training block. Source labels (seen, partly, memory, practice, judgement) are those of [references.md](references.md); "trade teaching" means common practice with no published source, "team\'s knowledge" a value from memory, "Coneline" our own judgement.',
     '',
     '## Findings',
     '',
