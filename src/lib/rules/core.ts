@@ -48,7 +48,13 @@ export { evaluateCanal, readCanal } from './evaluate';
 export type { CanalResult, CanalReading } from './evaluate';
 export { caseTimeline, compareEvents } from './timeline';
 export type { CanalState, CanalStatus } from './state';
-export { canalThirds, isCompactionComplete } from './thirds';
+export {
+  canalThirds,
+  isCompactionComplete,
+  fallbackStopDepthFor,
+  STOP_DEPTH_REFERENCE_LENGTH_MM,
+  STOP_DEPTH_SCALING_SOURCE,
+} from './thirds';
 export type { CanalThirds } from './thirds';
 export {
   ISO_SIZES,

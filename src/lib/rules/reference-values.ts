@@ -6,6 +6,7 @@ import { AVERAGE_LENGTHS, SECOND_CANAL_PAIR, SECOND_CANAL_SOURCE } from './anato
 import { PROPORTIONAL_SOURCE, STEP_BACK_SOURCES } from './calculators';
 import type { LabelledValue } from './labels';
 import { NON_STANDARD_SIZES, SIZE_SOURCES } from './sizes';
+import { STOP_DEPTH_REFERENCE_LENGTH_MM, STOP_DEPTH_SCALING_SOURCE } from './thirds';
 import { DEFAULT_TOLERANCES, TOLERANCE_LABELS, type Tolerances } from './tolerances';
 
 const TOOTH_TYPES = ['', 'central incisor', 'lateral incisor', 'canine', 'first premolar', 'second premolar'];
@@ -39,6 +40,12 @@ export function referenceValues(): LabelledValue[] {
   return [
     ...averageLengths(),
     ...tolerances(),
+    {
+      id: 'thirds.anteriorReferenceLength',
+      what: 'tooth length the fallback stop depth is scaled from on anterior teeth (s × A / 21)',
+      value: `${STOP_DEPTH_REFERENCE_LENGTH_MM} mm`,
+      ...STOP_DEPTH_SCALING_SOURCE,
+    },
     {
       id: 'canals.secondCanal',
       what: 'second canal offered for FDI 31, 32, 41, 42, 34, 44, 15, 25',

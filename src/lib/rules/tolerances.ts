@@ -50,7 +50,7 @@ const NOTES: Readonly<Record<keyof Tolerances, string>> = {
   minAccessoryCones:
     'usually 4–5 accessory cones in an average canal, more in wide ones (trade teaching, practice); 3 is the floor below which a note is shown, as narrow canals take fewer.',
   fallbackStopDepthMm:
-    'stop when the spreader no longer passes the coronal third, about 10–12 mm from a cusp reference in most teeth; the upper end is the default.',
+    "stop when the spreader no longer passes the coronal third, about 10–12 mm from a cusp reference in most teeth; the upper end is the default. On an anterior tooth it is scaled by the tooth type's average length, s × A / 21 (judgement; see Canal thirds).",
   fillShortLimitMm:
     "a fill more than 2 mm short of the radiographic apex is under-filled (the guidelines seen through their abstract and secondary tables). The contract's fill categories are drawn at this limit.",
 };
