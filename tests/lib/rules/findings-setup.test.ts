@@ -9,7 +9,7 @@ describe('evaluateCanal', () => {
   });
 
   describe('cwl-unusual-for-tooth', () => {
-    // Molars about 20–22 mm (dental anatomy texts — memory): FDI 36 averages 21 mm; margin 4 mm (judgement).
+    // Molars about 20–22 mm (team's knowledge — memory): FDI 36 averages 21 mm; margin 4 mm (judgement).
     it('notes a CWL more than 4 mm longer than the tooth type average', () => {
       const log = canal({ cwlMm: 25.5 });
       const [f] = only(log.evaluate(), 'cwl-unusual-for-tooth');
@@ -211,7 +211,7 @@ describe('evaluateCanal', () => {
   });
 
   describe('master-length-mismatch', () => {
-    // Master cone to the full CWL: practice; margin 0.5 mm (one source seats it 0.5 mm short).
+    // Master cone to the full CWL: practice; margin 0.5 mm (some teaching fits it 0.5 mm short — practice).
     it('stops a master cone that did not reach', () => {
       const log = canal({ patch: { fit: { reachedLength: false } } });
       expect(only(log.evaluate(), 'master-length-mismatch')).toEqual([

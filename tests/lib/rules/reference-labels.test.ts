@@ -117,7 +117,7 @@ describe('docs/references.md', () => {
 // says "trade teaching" (practice), "team's knowledge" (memory) or "Coneline" (judgement).
 const UNNAMED = [
   /dental-education/i,
-  /\btextbooks\b/i,
+  /\btextbooks\b/i, // "textbookSteps" (a textbook canal) is not an attribution
   /study material/i,
   /dental anatomy texts/i,
   /\bone source\b/i,
@@ -131,6 +131,10 @@ describe('the sources', () => {
     ...readdirSync(rulesDir)
       .filter((f) => f.endsWith('.ts'))
       .map((f): [string, string] => [`src/lib/rules/${f}`, readFileSync(new URL(f, rulesDir), 'utf8')]),
+    // The tests name the sources of the values they use, too (this file holds the patterns).
+    ...readdirSync(new URL('./', import.meta.url))
+      .filter((f) => f.endsWith('.ts') && f !== 'reference-labels.test.ts')
+      .map((f): [string, string] => [`tests/lib/rules/${f}`, readFileSync(new URL(f, import.meta.url), 'utf8')]),
     ['docs/references.md', references],
     ['docs/rules.md', readFileSync(new URL('../../../docs/rules.md', import.meta.url), 'utf8')],
   ];
