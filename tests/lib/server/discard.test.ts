@@ -33,8 +33,11 @@ describe('case.discarded', () => {
     expect(await discardedAt(w.caseId)).not.toBeNull();
     expect(await listed()).not.toContain(w.caseId);
     const line = await db.k('audit_log').where({ action: 'case.discard', subject_id: w.caseId }).first();
-    expect(JSON.parse(line.detail_json)).toEqual({ chartRef: 'TST-0001', reason: 'Opened for the wrong tooth' });
-    expect(line.actor_id).toBe(db.ana);
+    expect(JSON.parse(line?.detail_json ?? 'null')).toEqual({
+      chartRef: 'TST-0001',
+      reason: 'Opened for the wrong tooth',
+    });
+    expect(line?.actor_id).toBe(db.ana);
   });
 
   it('refuses further steps on a discarded case, saying why, and stores nothing', async () => {
