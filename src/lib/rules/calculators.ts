@@ -1,5 +1,6 @@
 // Chairside calculators. Sources and labels from docs/references.md. Invalid input gives NaN (or
 // an empty schedule) rather than an exception, so a half-typed form never breaks a screen.
+import type { Sourced } from './labels';
 import { ISO_SIZES, isIsoSize } from './sizes';
 
 /** Rounds to 0.01 mm, dropping float noise (22.727… → 22.73). */
@@ -50,9 +51,22 @@ export function workingLengthFromApexLocator(readingMm: number, backOffMm = 0.5)
   return roundToHundredth(readingMm - backOffMm);
 }
 
+/** The proportional formula is Grossman's, read in secondary pages quoting it. */
+export const PROPORTIONAL_SOURCE: Sourced = {
+  source: "Grossman's formula, Grossman's Endodontic Practice",
+  label: 'seen (secondary)',
+};
+
+/** Mullaney's step of 1.0 mm per size, and the 0.5 mm step Allison et al. used. */
+export const STEP_BACK_SOURCES: Readonly<Record<'1.0' | '0.5', Sourced>> = {
+  '1.0': { source: 'Mullaney, Dent Clin North Am 1979;23(4):575–92', label: 'seen' },
+  '0.5': { source: 'Allison, Weber & Walton, J Endod 1979;5(10):298–304', label: 'seen' },
+};
+
 /**
- * Proportional method — Grossman / Best (secondary) — seen: actual length = actual file
- * length × radiographic tooth length ÷ radiographic file length, rounded to 0.01 mm.
+ * Proportional method — Grossman's formula (Grossman's Endodontic Practice, seen in secondary
+ * pages): actual length = actual file length × radiographic tooth length ÷ radiographic file
+ * length, rounded to 0.01 mm.
  * Example: 20.0 × 25.0 ÷ 22.0 = 22.73 mm. NaN unless all three are positive.
  */
 export function proportionalLength(
@@ -68,7 +82,7 @@ export function proportionalLength(
 /**
  * Step-back schedule after the MAF: each next larger ISO file is shortened by the step
  * (Mullaney, Dent Clin North Am 1979 — seen: MAF 25, then 30, 35, 40 at 1, 2, 3 mm short;
- * 0.5 mm per size is also taught — seen, sources differ). The MAF itself (at the CWL, used to
+ * 0.5 mm per size in Allison, Weber & Walton, J Endod 1979 — seen: sources differ). The MAF itself (at the CWL, used to
  * recapitulate) is not listed. Stops early at size 140 or before a length under 0.5 mm;
  * [] for a MAF that is not an ISO size, a step other than 0.5 or 1.0, or an invalid CWL.
  */

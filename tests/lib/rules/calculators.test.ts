@@ -51,7 +51,7 @@ describe('stepBackSchedule', () => {
       { size: '40', lengthMm: 18 },
     ]);
   });
-  it('steps 0.5 mm per size when asked (Allison 1979; dental texts — seen, sources differ)', () => {
+  it('steps 0.5 mm per size when asked (Allison, Weber & Walton 1979 — seen; Mullaney uses 1.0 mm)', () => {
     expect(stepBackSchedule('25', 21, 0.5, 4).map((s) => s.lengthMm)).toEqual([20.5, 20, 19.5, 19]);
   });
   it('crosses from 60 to 70 and stops at 140', () => {
