@@ -36,9 +36,19 @@ export {
   isRefusal,
   isCaseState,
   isLocked,
+  finalApprovalRefusal,
 } from './lifecycle';
-export type { CaseState, CaseAction, Refusal as LifecycleRefusal } from './lifecycle';
+export type { CaseState, CaseAction, Refusal as LifecycleRefusal, ApprovalBlockers } from './lifecycle';
 export type { Tolerances } from './tolerances';
+export { SIGNOFF_CHECKPOINTS, SIGNOFF_DECISIONS, RATING_KEYS, RATING_LEVELS } from './review';
+export type {
+  SignoffCheckpoint,
+  SignoffDecision,
+  SignoffOutcome,
+  RatingKey,
+  RatingLevel,
+  CanalRatings,
+} from './review';
 export { SOURCE_LABELS } from './labels';
 export type { SourceLabel, Sourced, LabelledValue } from './labels';
 export { referenceValues } from './reference-values';
