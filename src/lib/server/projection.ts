@@ -24,6 +24,7 @@ import { REMOVED, rowToEvent, withReviewStatus, type EventRow } from './canal-st
 import type { CanalDerivedRow, FindingHistoryRow, FindingRow } from './tables';
 import { readSettings, tolerancesOf } from './settings';
 import { audit } from './audit';
+import { noticeSubmitted } from './mail-notices';
 
 /** What judges canals in one run (a batch, a step of the re-judging): read once, not per canal. */
 export interface Judge {
@@ -236,13 +237,13 @@ export async function addCanal(k: Knex, row: { id: string; case_id: string; name
 }
 
 /**
- * Moves a case by an attending's review (`approve`, `return`) through the lifecycle; throws
- * with the lifecycle's reason when the case may not move so.
+ * Moves a case by an attending's review (`approve`, `return`, `reopen`) through the lifecycle;
+ * throws with the lifecycle's reason when the case may not move so.
  */
 export async function reviewCase(
   k: Knex,
   caseId: string,
-  action: 'approve' | 'return',
+  action: 'approve' | 'return' | 'reopen',
   at: string,
 ): Promise<CaseState> {
   const row = (await k('cases').where({ id: caseId }).first('review_status')) as ProjectedCase | undefined;
@@ -251,9 +252,14 @@ export async function reviewCase(
   if (isRefusal(moved)) throw new Error(moved.refused);
   // The column takes the review states only; a discarded case arrives with its own issue.
   if (moved === 'discarded') throw new Error('a review does not discard a case');
-  await k('cases')
-    .where({ id: caseId })
-    .update({ review_status: moved, signed_off_at: moved === 'approved' ? at : null, updated_at: k.fn.now() });
+  // Reopened, the case is back at work: no submission waits and no approval stands.
+  const change = {
+    review_status: moved,
+    signed_off_at: moved === 'approved' ? at : null,
+    ...(action === 'reopen' ? { submitted_at: null } : {}),
+    updated_at: k.fn.now(),
+  };
+  await k('cases').where({ id: caseId }).update(change);
   return moved;
 }
 
@@ -292,6 +298,12 @@ async function settleDiscard(
   });
 }
 
+/** How a batch moved the case: a submission stored, a withdrawal of the latest one stored. */
+export interface CaseMoves {
+  submitted: boolean;
+  withdrawn: boolean;
+}
+
 /** A case as the projection needs it. */
 export interface ProjectedCase {
   id: string;
@@ -308,10 +320,11 @@ export async function projectCase(
   trx: Knex,
   caseId: string,
   which: ReadonlySet<string> | 'all',
-  submitted: boolean,
+  moves: CaseMoves,
   judge: Judge,
   actorId: number | null = null,
 ): Promise<CanalResult[]> {
+  const { submitted, withdrawn } = moves;
   const row = (await trx('cases').where({ id: caseId }).first('review_status', 'discarded_at', 'chart_ref')) as
     Pick<CaseRow, 'review_status' | 'discarded_at' | 'chart_ref'> | undefined;
   if (!row) throw new Error(`no case ${caseId}`);
@@ -325,7 +338,10 @@ export async function projectCase(
   // Whether a submission stands once voids are applied (the rules' status says so; a case
   // with no canal yet has only the new event to go by).
   const live = out.length > 0 ? out.some((r) => r.state.status === 'submitted') : submitted;
-  const action: CaseAction | null = submitted && live ? 'submit' : which === 'all' && !live ? 'withdraw' : null;
+  // A withdrawal admitted by sync names the latest submission, which an earlier one (returned
+  // since) may outlive in the rules' view: it withdraws all the same.
+  const action: CaseAction | null =
+    submitted && live ? 'submit' : withdrawn || (which === 'all' && !live) ? 'withdraw' : null;
   const moved = action === null ? c.review_status : next(c.review_status, action);
   // A refused move leaves the case as it is: a second submission, a withdrawal of none.
   const review = isRefusal(moved) ? c.review_status : moved;
@@ -336,5 +352,7 @@ export async function projectCase(
     if (review === 'open') change.submitted_at = null;
   }
   await trx('cases').where({ id: c.id }).update(change);
+  // The attendings hear of a submission in the transaction that makes it (mail-notices.ts).
+  if (review === 'submitted' && c.review_status !== 'submitted') await noticeSubmitted(trx, caseId, judge.at);
   return out.map((r) => withReviewStatus(r, review));
 }
