@@ -93,7 +93,7 @@ export async function addComment(
         canal_id: input.canalId ?? null,
         event_id: input.eventId ?? null,
         author_id: user.id,
-        text: input.text,
+        text: input.text.trim(),
         created_at: at,
       })
       .returning('id');
