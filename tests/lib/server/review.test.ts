@@ -93,7 +93,10 @@ describe('a submitted case', () => {
     expect(c.status).toBe(201);
     const voided = w.add('event.voided', { eventId: submission!.id, reason: 'Too late' });
     const answer = await ingestBatch(db.k, db.ana, 'tablet', [voided]);
-    expect(answer.results[0]).toMatchObject({ status: 'rejected', error: expect.stringMatching(/already started reviewing/) });
+    expect(answer.results[0]).toMatchObject({
+      status: 'rejected',
+      error: expect.stringMatching(/already started reviewing/),
+    });
     expect(await stateOf(w.caseId)).toBe('submitted');
   });
 
@@ -127,7 +130,10 @@ describe('signOff', () => {
     const { w, canal } = await aCase();
     const input = { ...final('approve'), ratings: { [canal]: { fillLength: 4, density: 3 } } } as SignoffInput;
     const answer = await signOff(db.k, helen, w.caseId, input);
-    expect(answer).toMatchObject({ status: 201, body: { reviewStatus: 'approved', signoff: { decision: 'approved' } } });
+    expect(answer).toMatchObject({
+      status: 201,
+      body: { reviewStatus: 'approved', signoff: { decision: 'approved' } },
+    });
     expect(await stateOf(w.caseId)).toBe('approved');
     expect(await db.k('audit_log').where({ action: 'case.signoff', subject_id: w.caseId })).toHaveLength(1);
     expect((await outbox(w.caseId)).map((m) => [m.recipient_id, m.kind])).toContainEqual([db.ana, 'approved']);
@@ -140,7 +146,10 @@ describe('signOff', () => {
   it('refuses a final approval with an unfilled canal, naming it, and stores nothing', async () => {
     const { w } = await aCase({ fill: false });
     const answer = await signOff(db.k, helen, w.caseId, final('approve'));
-    expect(answer).toMatchObject({ status: 409, body: { code: 'open-problems', error: expect.stringMatching(/canal D unfilled/) } });
+    expect(answer).toMatchObject({
+      status: 409,
+      body: { code: 'open-problems', error: expect.stringMatching(/canal D unfilled/) },
+    });
     expect(await db.k('signoffs').where({ case_id: w.caseId })).toHaveLength(0);
     expect(await stateOf(w.caseId)).toBe('submitted');
   });
@@ -177,7 +186,13 @@ describe('signOff', () => {
 
   it('keeps checkpoint sign-offs independent of the case state and of each other', async () => {
     const { w, canal } = await aCase({ submit: false });
-    const cone = { id: randomUUID(), checkpoint: 'cone-fit', canalId: canal, decision: 'approve', expectedState: 'open' };
+    const cone = {
+      id: randomUUID(),
+      checkpoint: 'cone-fit',
+      canalId: canal,
+      decision: 'approve',
+      expectedState: 'open',
+    };
     const fill = { ...cone, id: randomUUID(), checkpoint: 'fill-check', decision: 'return', comment: 'Voids.' };
     expect((await signOff(db.k, helen, w.caseId, fill as SignoffInput)).status).toBe(201);
     expect((await signOff(db.k, helen, w.caseId, cone as SignoffInput)).status).toBe(201);
@@ -191,7 +206,13 @@ describe('signOff', () => {
     await addComment(db.k, ana, w.caseId, { id: randomUUID(), canalId: canal, text: 'A question' });
     const afterComment = await caseVersion(db.k, w.caseId);
     expect(afterComment).not.toBe(before);
-    const cone = { id: randomUUID(), checkpoint: 'cone-fit', canalId: canal, decision: 'approve', expectedState: 'open' };
+    const cone = {
+      id: randomUUID(),
+      checkpoint: 'cone-fit',
+      canalId: canal,
+      decision: 'approve',
+      expectedState: 'open',
+    };
     await signOff(db.k, helen, w.caseId, cone as SignoffInput);
     expect(await caseVersion(db.k, w.caseId)).not.toBe(afterComment);
   });
@@ -202,7 +223,10 @@ describe('reopen', () => {
     const { w, canal } = await aCase();
     await signOff(db.k, helen, w.caseId, final('approve'));
     expect((await reopen(db.k, ana, w.caseId, { id: randomUUID(), reason: 'x' })).status).toBe(403);
-    const answer = await reopen(db.k, helen, w.caseId, { id: randomUUID(), reason: 'The post-op radiograph was missed' });
+    const answer = await reopen(db.k, helen, w.caseId, {
+      id: randomUUID(),
+      reason: 'The post-op radiograph was missed',
+    });
     expect(answer).toMatchObject({ status: 201, body: { reviewStatus: 'open', signoff: { decision: 'reopened' } } });
     const rows = await db.k('signoffs').where({ case_id: w.caseId }).orderBy('id');
     expect(rows.map((r) => r.decision)).toEqual(['approved', 'reopened']);
@@ -225,7 +249,9 @@ describe('addComment', () => {
   it('lets the student, an assigned attending and a director comment, and tells anyone else there is no such case', async () => {
     const { w, canal } = await aCase();
     for (const who of [ana, helen, ingrid])
-      expect((await addComment(db.k, who, w.caseId, { id: randomUUID(), canalId: canal, text: ' Fine. ' })).status).toBe(201);
+      expect(
+        (await addComment(db.k, who, w.caseId, { id: randomUUID(), canalId: canal, text: ' Fine. ' })).status,
+      ).toBe(201);
     expect((await addComment(db.k, samuel, w.caseId, { id: randomUUID(), text: 'Hi' })).status).toBe(404);
     const texts = (await db.k('comments').where({ case_id: w.caseId })).map((c) => c.text);
     expect(texts).toEqual(['Fine.', 'Fine.', 'Fine.']);
