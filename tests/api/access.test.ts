@@ -67,6 +67,7 @@ const MATRIX_ID = {
   signoffs: '00000000-0000-4000-8000-00000000a11c',
   reopen: '00000000-0000-4000-8000-00000000a11d',
   comments: '00000000-0000-4000-8000-00000000a11e',
+  mail: '00000000-0000-4000-8000-00000000a11f',
 };
 
 /** One row per route pattern (as Astro names it). */
@@ -134,6 +135,16 @@ const MATRIX: Record<string, Row[]> = {
   // A body that cannot pass validation: the matrix must change nothing.
   '/api/me/password': [
     { method: 'POST', path: () => '/api/me/password', body: { id: 'x' }, expect: signedIn(400, 401) },
+  ],
+  '/api/me/mail': [
+    { method: 'GET', path: () => '/api/me/mail', expect: signedIn(200, 401) },
+    // Not a boolean: refused before anything is stored.
+    {
+      method: 'POST',
+      path: () => '/api/me/mail',
+      body: { id: MATRIX_ID.mail, digest: 'yes' },
+      expect: signedIn(400, 401),
+    },
   ],
   '/api/sync': [
     {

@@ -208,6 +208,26 @@ describe('POST /api/cases/{caseId}/signoffs', () => {
   });
 });
 
+describe('POST /api/me/mail', () => {
+  it("holds an attending's notices for the daily digest once chosen, and sends each at once again when not", async () => {
+    const choose = async (digest: boolean) => {
+      const res = await as.helen!.post('/api/me/mail', { id: randomUUID(), digest });
+      expect(res.status).toBe(200);
+      expect(await (await as.helen!.fetch('/api/me/mail')).json()).toEqual({ digest });
+    };
+    await choose(true);
+    try {
+      const { w } = await aCase();
+      await new Promise((r) => setTimeout(r, 1000)); // a few polls of the outbox
+      expect(await mailsAbout(w.caseId, 0)).toEqual([]);
+    } finally {
+      await choose(false);
+    }
+    const { w } = await aCase();
+    expect(await mailsAbout(w.caseId, 1)).toHaveLength(1);
+  });
+});
+
 describe('POST /api/cases/{caseId}/comments and the case answer', () => {
   it('takes comments from the student and the assigned attending, 404 for anyone else, and changes the ETag', async () => {
     const { w, canal } = await aCase();
