@@ -219,6 +219,7 @@ describe('POST /api/me/mail', () => {
     try {
       const { w } = await aCase();
       await new Promise((r) => setTimeout(r, 1000)); // a few polls of the outbox
+      // Held for tomorrow's digest (07:00 clinic time), not sent now.
       expect(await mailsAbout(w.caseId, 0)).toEqual([]);
     } finally {
       await choose(false);

@@ -146,8 +146,11 @@ export async function deliverDue(
   return run;
 }
 
-/** The clinic-local day (YYYY-MM-DD) and hour of an instant. */
-export function clinicDayAndHour(now: Date, clinic: Clinic): { day: string; hour: number } {
+/** The clinic-local day (YYYY-MM-DD), hour, minute and second of an instant. */
+export function clinicDayAndHour(
+  now: Date,
+  clinic: Clinic,
+): { day: string; hour: number; minute: number; second: number } {
   const parts = Object.fromEntries(
     new Intl.DateTimeFormat('en-CA', {
       timeZone: clinic.timeZone,
@@ -155,25 +158,38 @@ export function clinicDayAndHour(now: Date, clinic: Clinic): { day: string; hour
       month: '2-digit',
       day: '2-digit',
       hour: '2-digit',
+      minute: '2-digit',
+      second: '2-digit',
       hourCycle: 'h23',
     })
       .formatToParts(now)
       .map((p) => [p.type, p.value]),
   );
-  return { day: `${parts.year}-${parts.month}-${parts.day}`, hour: Number(parts.hour) };
+  return {
+    day: `${parts.year}-${parts.month}-${parts.day}`,
+    hour: Number(parts.hour),
+    minute: Number(parts.minute),
+    second: Number(parts.second),
+  };
 }
 
 /**
- * Once a day, from DIGEST_HOUR clinic time: gathers each recipient's held notices into one
- * digest e-mail (a new pending row) and marks them `digested`, in one transaction. A
- * recipient gets at most one digest a day (its `digest_key`); notices held after it wait for
- * the next day's. Answers how many digests it wrote.
+ * Once a day, from DIGEST_HOUR clinic time: gathers each recipient's notices held before that
+ * hour into one digest e-mail (a new pending row) and marks them `digested`, in one
+ * transaction. A recipient gets at most one digest a day (its `digest_key`); notices held
+ * after the hour wait for the next day's. Answers how many digests it wrote.
  */
 export async function composeDigests(k: Knex, now: Date, clinic: Clinic): Promise<number> {
-  const { day, hour } = clinicDayAndHour(now, clinic);
+  const { day, hour, minute, second } = clinicDayAndHour(now, clinic);
   if (hour < DIGEST_HOUR) return 0;
+  // Today's DIGEST_HOUR as an instant (off by the shift on a day the clocks change, at worst).
+  const since = ((hour - DIGEST_HOUR) * 3600 + minute * 60 + second) * 1000 + now.getUTCMilliseconds();
+  const cutoff = new Date(now.getTime() - since).toISOString();
   return k.transaction(async (trx) => {
-    const recipients = (await trx('mail_outbox').distinct('recipient_id').where({ status: 'held' })) as {
+    const recipients = (await trx('mail_outbox')
+      .distinct('recipient_id')
+      .where({ status: 'held' })
+      .where('created_at', '<', cutoff)) as {
       recipient_id: number;
     }[];
     let written = 0;
@@ -182,6 +198,7 @@ export async function composeDigests(k: Knex, now: Date, clinic: Clinic): Promis
       if (await trx('mail_outbox').where({ digest_key: key }).first('id')) continue;
       const held = (await trx('mail_outbox')
         .where({ recipient_id, status: 'held' })
+        .where('created_at', '<', cutoff)
         .orderBy('created_at')) as MailOutboxRow[];
       const id = randomUUID();
       const count = held.length;

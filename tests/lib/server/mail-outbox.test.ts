@@ -120,6 +120,20 @@ describe('composeDigests', () => {
       expect(smtp.messages[0]!.raw).toContain('tooth 36');
       expect(smtp.messages[0]!.raw).toContain('tooth 11');
       expect((await db.k('mail_outbox').where({ recipient_id: db.ben, status: 'digested' })).length).toBe(2);
+
+      // Held after the hour: it waits for the next day's digest.
+      await db.k.transaction((trx) =>
+        enqueueMail(trx, ben('Waiting for your review: tooth 21'), '2026-12-08T08:00:00.000Z'),
+      );
+      expect(await composeDigests(db.k, at('2026-12-08T20:00:00.000Z'), LONDON)).toBe(0);
+      expect(await composeDigests(db.k, at('2026-12-09T07:00:30.000Z'), LONDON)).toBe(1);
+      const next = await db
+        .k('mail_outbox')
+        .where({ kind: 'digest', recipient_id: db.ben })
+        .orderBy('created_at', 'desc')
+        .first();
+      expect(next!.body_text).toContain('tooth 21');
+      expect(next!.body_text).not.toContain('tooth 36');
     } finally {
       await db.k('users').where({ id: db.ben }).update({ mail_digest: false });
     }
@@ -129,6 +143,8 @@ describe('composeDigests', () => {
     expect(clinicDayAndHour(at('2026-12-07T23:30:00Z'), { timeZone: 'Pacific/Auckland', locale: 'en-NZ' })).toEqual({
       day: '2026-12-08',
       hour: 12,
+      minute: 30,
+      second: 0,
     });
   });
 });
