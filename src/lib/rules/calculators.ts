@@ -1,6 +1,6 @@
 // Chairside calculators. Sources and labels from docs/references.md. Invalid input gives NaN (or
 // an empty schedule) rather than an exception, so a half-typed form never breaks a screen.
-import { ISO_SIZES, isIsoSize } from './sizes';
+import { ISO_SIZES, diameterAtMm, isIsoSize, isoColour, tipDiameterMm, type IsoColourName } from './sizes';
 
 /** Rounds to 0.01 mm, dropping float noise (22.727… → 22.73). */
 export function roundToHundredth(mm: number): number {
@@ -12,7 +12,25 @@ export function roundToHalf(mm: number): number {
   return Math.round(mm * 2) / 2;
 }
 
-const RESORPTION_ALLOWANCE_MM = { none: 1, bone: 1.5, 'bone-and-root': 2 } as const;
+/**
+ * Rounds down to the 0.5 mm ruler step, so a derived working length is never longer than
+ * computed (our judgement: short of the apex is the safer side). The value is first taken to
+ * 0.01 mm, the resolution every calculator reports, which also drops float noise: 22.73 → 22.5,
+ * 22.999999 → 23.0 (shown beside it as 23.00, so the two never disagree), 22.99 → 22.5.
+ * NaN for anything that is not a finite number.
+ */
+export function floorToHalf(mm: number): number {
+  if (typeof mm !== 'number' || !Number.isFinite(mm)) return Number.NaN;
+  // Hundredths as an integer: 2273 → 4 whole half-millimetres (50 hundredths each) → 22.5.
+  const hundredths = Math.round(roundToHundredth(mm) * 100);
+  return (Math.floor(hundredths / 50) * 50) / 100;
+}
+
+/** What the radiograph shows around the apex, which sets how far short the working length is. */
+export type Resorption = 'none' | 'bone' | 'bone-and-root';
+export const RESORPTIONS: readonly Resorption[] = Object.freeze(['none', 'bone', 'bone-and-root']);
+// Ingle; Weine; Grossman's Endodontic Practice, 13th ed. (secondary pages) — seen.
+const RESORPTION_ALLOWANCE_MM: Readonly<Record<Resorption, number>> = { none: 1, bone: 1.5, 'bone-and-root': 2 };
 
 /**
  * Radiographic (discrepancy) method — Ingle; Weine; Grossman's Endodontic Practice, 13th ed.
@@ -24,7 +42,7 @@ const RESORPTION_ALLOWANCE_MM = { none: 1, bone: 1.5, 'bone-and-root': 2 } as co
 export function workingLengthByDiscrepancy(
   fileLengthMm: number,
   tipToApexMm: number,
-  resorption: 'none' | 'bone' | 'bone-and-root' = 'none',
+  resorption: Resorption = 'none',
 ): { actualLengthMm: number; workingLengthMm: number } {
   const allowance = RESORPTION_ALLOWANCE_MM[resorption];
   if (
@@ -66,6 +84,32 @@ export function proportionalLength(
 }
 
 /**
+ * Working length by the proportional method: the tooth length from `proportionalLength`
+ * (Grossman / Best, secondary — seen) less the radiographic method's allowance (1 mm, 1.5 mm
+ * with bone resorption, 2 mm with bone and root resorption — seen for that method; using it
+ * after the proportional estimate too is our judgement). Example: 20.0 × 25.0 ÷ 22.0 = 22.73 mm
+ * → working length 21.73 mm. NaN unless all three lengths are positive.
+ */
+export function workingLengthByProportion(
+  actualFileMm: number,
+  radiographicToothMm: number,
+  radiographicFileMm: number,
+  resorption: Resorption = 'none',
+): { actualLengthMm: number; workingLengthMm: number } {
+  const actual = proportionalLength(actualFileMm, radiographicToothMm, radiographicFileMm);
+  const allowance = RESORPTION_ALLOWANCE_MM[resorption];
+  if (Number.isNaN(actual) || allowance === undefined) {
+    return { actualLengthMm: Number.NaN, workingLengthMm: Number.NaN };
+  }
+  return { actualLengthMm: actual, workingLengthMm: roundToHundredth(actual - allowance) };
+}
+
+/** The allowance each resorption choice takes off the actual length (mm). */
+export function resorptionAllowanceMm(resorption: Resorption): number {
+  return RESORPTION_ALLOWANCE_MM[resorption] ?? Number.NaN;
+}
+
+/**
  * Step-back schedule after the MAF: each next larger ISO file is shortened by the step
  * (Mullaney, Dent Clin North Am 1979 — seen: MAF 25, then 30, 35, 40 at 1, 2, 3 mm short;
  * 0.5 mm per size is also taught — seen, sources differ). The MAF itself (at the CWL, used to
@@ -89,4 +133,36 @@ export function stepBackSchedule(
     out.push({ size, lengthMm });
   }
   return out;
+}
+
+/**
+ * Length of the cutting part over which an ISO instrument's 0.02 taper runs, so the diameter
+ * 16 mm from the tip is D16 = D0 + 0.32 mm (ADA Spec. No. 28 as quoted in study material —
+ * partly; D16 is arithmetic).
+ */
+export const ISO_CUTTING_LENGTH_MM = 16;
+
+export interface IsoSizeRow {
+  size: string;
+  colour: IsoColourName;
+  hex: string;
+  textHex: string;
+  /** Tip diameter, mm. */
+  d0Mm: number;
+  /** Diameter at 16 mm from the tip with the standard 0.02 taper, mm. */
+  d16Mm: number;
+}
+
+/** One ISO size with its colour and diameters (size 30 → blue, D0 0.30 mm, D16 0.62 mm); null for a designation. */
+export function isoSizeRow(size: string): IsoSizeRow | null {
+  const colour = isoColour(size);
+  if (!colour) return null;
+  return {
+    size,
+    colour: colour.name,
+    hex: colour.hex,
+    textHex: colour.textHex,
+    d0Mm: tipDiameterMm(size),
+    d16Mm: diameterAtMm(size, ISO_CUTTING_LENGTH_MM),
+  };
 }

@@ -64,7 +64,16 @@ export {
   workingLengthByDiscrepancy,
   workingLengthFromApexLocator,
   proportionalLength,
+  workingLengthByProportion,
+  resorptionAllowanceMm,
+  RESORPTIONS,
   stepBackSchedule,
   roundToHalf,
   roundToHundredth,
+  floorToHalf,
+  ISO_CUTTING_LENGTH_MM,
+  isoSizeRow,
 } from './calculators';
+export type { Resorption, IsoSizeRow } from './calculators';
+export { CALCULATOR_SOURCES, ROUNDING_SOURCE, SOURCE_KINDS, sourceKind } from './calculator-sources';
+export type { CalculatorId, SourceKind, SourcedValue } from './calculator-sources';
