@@ -1,7 +1,7 @@
 // The calculators page in Chromium: each calculator used by taps alone (rulers, the keypad,
 // chips), every derived length rounded toward shorter with the exact value beside it, targets
-// big enough for gloves, axe clean, open with no network after one visit, and none of the
-// chairside's scripts but React's.
+// big enough for gloves, axe clean, no policy violation, open with no network after one
+// visit, and none of the chairside's scripts but React's.
 import AxeBuilder from '@axe-core/playwright';
 import { mkdirSync } from 'node:fs';
 import type { Browser, Page } from 'playwright-core';
@@ -92,6 +92,14 @@ describe('the calculators page', () => {
   ] as const) {
     it(`works each calculator by taps at ${width}×${height}, rounding every derived length toward shorter`, async () => {
       const context = await browser.newContext({ viewport: { width, height } });
+      // Content-Security-Policy violations, collected before any of the page's own scripts run.
+      await context.addInitScript(() => {
+        const seen: string[] = [];
+        (window as unknown as { __violations: string[] }).__violations = seen;
+        document.addEventListener('securitypolicyviolation', (e) =>
+          seen.push(`${e.violatedDirective} ${e.blockedURI}`),
+        );
+      });
       const page = await context.newPage();
       const shot = (name: string) =>
         page.screenshot({ path: `test-results/calculators-${name}-${width}x${height}.png`, fullPage: true });
@@ -227,6 +235,7 @@ describe('the calculators page', () => {
       expect(new URL(page.url()).hash).toBe('#tooth-numbers');
       await page.goBack();
       await page.locator('[data-calculator="iso-sizes"]').waitFor();
+      expect(await page.evaluate(() => (window as unknown as { __violations: string[] }).__violations)).toEqual([]);
       await context.close();
     });
   }
@@ -285,6 +294,11 @@ describe('the calculators page', () => {
     const shared = [...calculators].filter((u) => chairside.has(u)).map(name);
     // The React renderer (client.*.js, Astro's) and React itself (react.*.js, our manual chunk).
     expect(shared.map((n) => n.split('.')[0]).sort()).toEqual(['client', 'react']);
+
+    // Its inline scripts are allowed by their hashes, sent as a header like the chairside's.
+    const csp = (await fetch(`${server.baseUrl}/calculators`)).headers.get('content-security-policy') ?? '';
+    expect(csp).toMatch(/script-src 'self' 'sha256-/);
+    expect(csp).not.toContain('unsafe-inline');
 
     const sw = await (await fetch(`${server.baseUrl}/sw.js`)).text();
     expect(sw).toMatch(/url:\s*"calculators"/);
