@@ -17,11 +17,14 @@ export type { Tolerances } from './rules/tolerances';
  * ever accepted (tablets run an older precached app until they update), and a tablet records
  * an event type only when the server it talks to knows it (EVENT_TYPE_SINCE).
  */
-export const CONTRACT_VERSION = 1;
+export const CONTRACT_VERSION = 2;
+
+/** Event types added after version 1, with the version that added them. */
+const ADDED: Partial<Record<EventType, number>> = { 'compaction.finished': 2, 'case.discarded': 2 };
 
 /** The contract version in which each event type appeared. */
 export const EVENT_TYPE_SINCE: Readonly<Record<EventType, number>> = Object.fromEntries(
-  EVENT_TYPES.map((t) => [t, 1]),
+  EVENT_TYPES.map((t) => [t, ADDED[t] ?? 1]),
 ) as Record<EventType, number>;
 
 /** True when a server reporting `serverVersion` knows events of `type`. */

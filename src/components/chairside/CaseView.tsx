@@ -5,6 +5,7 @@ import { CanalPicker } from './CanalPicker';
 import { CanalSetup } from './CanalSetup';
 import { CanalStepper } from './CanalStepper';
 import { CanalTabs } from './CanalTabs';
+import { canDiscard, DiscardCase, discardOpenCase } from './DiscardCase';
 import { Summary } from './Summary';
 
 /** One open case: canal tabs, and below them the canal stepper, the canal set-up or the finishing card. */
@@ -13,6 +14,7 @@ export function CaseView(props: { info: CaseInfo; tablet: TabletCase }) {
   const { canals, events } = tablet;
   const canalId = useChairside((s) => s.canalId);
   const selectCanal = useChairside((s) => s.selectCanal);
+  const serverContract = useChairside((s) => s.identity.serverContract);
   const [view, setView] = useState<'canal' | 'add' | 'finish'>(canals.length === 0 ? 'add' : 'canal');
   const [queue, setQueue] = useState<string[]>([]);
   const [firstNew, setFirstNew] = useState<string | null>(null);
@@ -31,7 +33,20 @@ export function CaseView(props: { info: CaseInfo; tablet: TabletCase }) {
         setting={info.setting}
         tooth={info.tooth}
         remaining={queue.length - 1}
-        onCancel={() => setQueue([])}
+        onCancel={() => {
+          // Cancelling one canal keeps the others picked; cancelling the last leaves no empty case.
+          const rest = queue.slice(1);
+          setQueue(rest);
+          if (rest.length > 0) return;
+          const first = firstNew ?? canals[0]?.canalId ?? null;
+          setFirstNew(null);
+          if (first !== null) {
+            selectCanal(first);
+            setView('canal');
+          } else if (canDiscard(tablet, serverContract)) {
+            void discardOpenCase(info.caseId, 'Cancelled before any canal was set up');
+          }
+        }}
         onDone={(id) => {
           const rest = queue.slice(1);
           const first = firstNew ?? id;
@@ -56,8 +71,19 @@ export function CaseView(props: { info: CaseInfo; tablet: TabletCase }) {
         onCancel={canals.length ? () => setView('canal') : undefined}
       />
     );
+    body = (
+      <>
+        {body}
+        <DiscardCase tablet={tablet} />
+      </>
+    );
   } else if (view === 'finish') {
-    body = <Summary info={info} tablet={tablet} />;
+    body = (
+      <>
+        <Summary info={info} tablet={tablet} />
+        <DiscardCase tablet={tablet} />
+      </>
+    );
   } else if (selected) {
     body = (
       <CanalStepper

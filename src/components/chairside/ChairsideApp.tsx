@@ -30,6 +30,10 @@ export default function ChairsideApp() {
   }, []);
 
   const info = tablet.caseId === caseId ? tablet.info : null;
+  // Opening the new case ends "creating": leaving it later (a discard) goes back to the list.
+  useEffect(() => {
+    if (caseId) setCreating(false);
+  }, [caseId]);
 
   let body;
   if (phase === 'loading') body = <p className="text-lg">Opening the log on this tablet…</p>;
@@ -60,7 +64,7 @@ export default function ChairsideApp() {
       </StepCard>
     );
   } else if (creating && !caseId) body = <OpenCase onCancel={() => setCreating(false)} />;
-  else if (!caseId || !info) body = <CaseList onNew={() => setCreating(true)} />;
+  else if (!caseId || !info || info.discarded) body = <CaseList onNew={() => setCreating(true)} />;
   else body = <CaseView key={caseId} info={info} tablet={tablet} />;
 
   return (

@@ -11,8 +11,10 @@ export type CaseState = (typeof CASE_STATES)[number];
  * - `submit`: a `case.submitted` stands.
  * - `withdraw`: the submission no longer stands (its `case.submitted` was voided).
  * - `return`, `approve`: an attending's final review.
+ * - `discard`: a `case.discarded` stands (a case opened by mistake, with no filled canal).
+ * - `restore`: the discard no longer stands (its `case.discarded` was voided).
  */
-export const CASE_ACTIONS = ['record', 'submit', 'withdraw', 'return', 'approve'] as const;
+export const CASE_ACTIONS = ['record', 'submit', 'withdraw', 'return', 'approve', 'discard', 'restore'] as const;
 export type CaseAction = (typeof CASE_ACTIONS)[number];
 
 /** Why an action is refused in a state, in words a student can act on. */
@@ -27,6 +29,13 @@ const DISCARDED: Refusal = { refused: 'this case was discarded; nothing more can
 const NOT_SUBMITTED: Refusal = { refused: 'this case is not waiting for review' };
 const ALREADY_SUBMITTED: Refusal = { refused: 'this case is already waiting for review' };
 const NOTHING_TO_WITHDRAW: Refusal = { refused: 'this case has no submission waiting for review to withdraw' };
+const DISCARD_SUBMITTED: Refusal = {
+  refused: 'this case is waiting for review; withdraw the submission before discarding it',
+};
+const DISCARD_REVIEWED: Refusal = {
+  refused: 'this case has been reviewed and is kept on the record; ask your attending if it was opened by mistake',
+};
+const NOT_DISCARDED: Refusal = { refused: 'this case is not discarded' };
 
 /** The transition table: for each state and action, the next state or why not. */
 export const TRANSITIONS: Readonly<Record<CaseState, Readonly<Record<CaseAction, CaseState | Refusal>>>> = {
@@ -36,6 +45,8 @@ export const TRANSITIONS: Readonly<Record<CaseState, Readonly<Record<CaseAction,
     withdraw: NOTHING_TO_WITHDRAW,
     return: NOT_SUBMITTED,
     approve: NOT_SUBMITTED,
+    discard: 'discarded',
+    restore: NOT_DISCARDED,
   },
   submitted: {
     record: 'submitted',
@@ -43,6 +54,8 @@ export const TRANSITIONS: Readonly<Record<CaseState, Readonly<Record<CaseAction,
     withdraw: 'open',
     return: 'returned',
     approve: 'approved',
+    discard: DISCARD_SUBMITTED,
+    restore: NOT_DISCARDED,
   },
   // A returned case is worked on again and submitted again; withdrawing a later submission
   // is not possible from here (the case is no longer waiting).
@@ -52,6 +65,8 @@ export const TRANSITIONS: Readonly<Record<CaseState, Readonly<Record<CaseAction,
     withdraw: NOTHING_TO_WITHDRAW,
     return: NOT_SUBMITTED,
     approve: NOT_SUBMITTED,
+    discard: DISCARD_REVIEWED,
+    restore: NOT_DISCARDED,
   },
   approved: {
     record: SIGNED_OFF,
@@ -59,13 +74,18 @@ export const TRANSITIONS: Readonly<Record<CaseState, Readonly<Record<CaseAction,
     withdraw: SIGNED_OFF,
     return: NOT_SUBMITTED,
     approve: NOT_SUBMITTED,
+    discard: SIGNED_OFF,
+    restore: NOT_DISCARDED,
   },
+  // Voiding the discard is the one event a discarded case takes; it returns the case to open.
   discarded: {
     record: DISCARDED,
     submit: DISCARDED,
     withdraw: DISCARDED,
     return: DISCARDED,
     approve: DISCARDED,
+    discard: DISCARDED,
+    restore: 'open',
   },
 };
 

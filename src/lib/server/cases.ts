@@ -17,6 +17,8 @@ export async function listCases(
   const q = readableCases(k, user)
     .join('users', 'users.id', 'cases.student_id')
     .select('cases.*', 'users.name as student_name')
+    // A discarded case leaves every list (docs/lifecycle.md); its page still opens.
+    .whereNull('cases.discarded_at')
     .orderBy('cases.opened_at', 'desc');
   if (filter.reviewStatus) q.whereIn('cases.review_status', filter.reviewStatus);
   if (filter.studentId) q.where('cases.student_id', filter.studentId);
@@ -93,6 +95,7 @@ export async function caseVersion(k: Knex, caseId: string): Promise<string | nul
       'c.submitted_at',
       'c.signed_off_at',
       'c.updated_at',
+      'c.discarded_at',
       k.raw(
         "(select count(*) || ':' || coalesce(max(rowid), 0) || ':' || coalesce(max(received_at), '') from events where case_id = c.id) as ev",
       ),

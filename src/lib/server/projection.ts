@@ -8,6 +8,7 @@
 import type { Knex } from 'knex';
 import type { CaseRow } from './tables';
 import {
+  caseTimeline,
   evaluateCanal,
   isRefusal,
   next,
@@ -22,6 +23,7 @@ import {
 import { REMOVED, rowToEvent, withReviewStatus, type EventRow } from './canal-store';
 import type { CanalDerivedRow, FindingHistoryRow, FindingRow } from './tables';
 import { readSettings, tolerancesOf } from './settings';
+import { audit } from './audit';
 
 /** What judges canals in one run (a batch, a step of the re-judging): read once, not per canal. */
 export interface Judge {
@@ -255,6 +257,41 @@ export async function reviewCase(
   return moved;
 }
 
+/**
+ * Whether a `case.discarded` stands once voids are applied, and the case's `discarded_at` to
+ * match, through the lifecycle's `discard` and `restore`; each change gets an audit line, which
+ * keeps a patient case's chart number so the clinic can trace a case that left the lists.
+ */
+async function settleDiscard(
+  trx: Knex,
+  caseId: string,
+  row: Pick<CaseRow, 'review_status' | 'discarded_at' | 'chart_ref'>,
+  at: string,
+  actorId: number | null,
+): Promise<void> {
+  const rows: EventRow[] = await trx('events')
+    .select('id', 'case_id', 'canal_id', 'type', 'at', 'data_json')
+    .where({ case_id: caseId })
+    .whereNull('canal_id')
+    .whereIn('type', ['case.discarded', 'event.voided']);
+  const standing = caseTimeline(caseId, rows.map(rowToEvent)).find((e) => e.type === 'case.discarded');
+  const state: CaseState = row.discarded_at === null ? row.review_status : 'discarded';
+  const action: CaseAction | null =
+    standing !== undefined && state !== 'discarded'
+      ? 'discard'
+      : standing === undefined && state === 'discarded'
+        ? 'restore'
+        : null;
+  if (action === null || isRefusal(next(state, action))) return;
+  await trx('cases')
+    .where({ id: caseId })
+    .update({ discarded_at: action === 'discard' ? at : null, updated_at: trx.fn.now() });
+  await audit(trx, actorId, action === 'discard' ? 'case.discard' : 'case.restore', 'case', caseId, {
+    ...(row.chart_ref === null ? {} : { chartRef: row.chart_ref }),
+    ...(standing?.type === 'case.discarded' ? { reason: standing.data.reason } : {}),
+  });
+}
+
 /** A case as the projection needs it. */
 export interface ProjectedCase {
   id: string;
@@ -264,15 +301,22 @@ export interface ProjectedCase {
 /**
  * Judges the touched canals of one case (`'all'` after a case-level event), settles the
  * case's status through the lifecycle (a standing submission submits it; a withdrawn one
- * takes it out of the queue) and answers the canals as readers see them.
+ * takes it out of the queue; a standing discard discards it, its void restores it) and
+ * answers the canals as readers see them. `actorId` is the student whose batch it is.
  */
 export async function projectCase(
   trx: Knex,
-  c: ProjectedCase,
+  caseId: string,
   which: ReadonlySet<string> | 'all',
   submitted: boolean,
   judge: Judge,
+  actorId: number | null = null,
 ): Promise<CanalResult[]> {
+  const row = (await trx('cases').where({ id: caseId }).first('review_status', 'discarded_at', 'chart_ref')) as
+    Pick<CaseRow, 'review_status' | 'discarded_at' | 'chart_ref'> | undefined;
+  if (!row) throw new Error(`no case ${caseId}`);
+  const c: ProjectedCase = { id: caseId, review_status: row.review_status };
+  if (which === 'all') await settleDiscard(trx, caseId, row, judge.at, actorId);
   const ids =
     which === 'all'
       ? ((await trx('canals').select('id').where({ case_id: c.id }).orderBy('id')) as { id: string }[]).map((r) => r.id)

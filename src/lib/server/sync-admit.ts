@@ -7,6 +7,7 @@ import {
   isRefusal,
   next,
   tallyEvent,
+  type CaseAction,
   type CaseState,
   type LimitBreach,
   type LogEvent,
@@ -15,6 +16,7 @@ import {
 export interface KnownCase {
   id: string;
   student_id: number;
+  /** The lifecycle state: `discarded` while a discard stands, else the review state. */
   review_status: CaseState;
 }
 
@@ -48,6 +50,8 @@ export interface Known {
   refused: Set<string>;
   /** What each of this student's cases holds, for the limits. */
   tallies: Map<string, CaseTally>;
+  /** Cases with a filled canal (a live canal with a seated master cone): they cannot be discarded. */
+  filled: Set<string>;
 }
 
 export type Refusal = { error: string; retry?: true };
@@ -85,9 +89,16 @@ export function refusal(e: LogEvent, known: Known): Refusal | null {
     return mine ? { error: 'this case was already opened' } : UNKNOWN_CASE;
   }
   if (!c || !mine) return UNKNOWN_CASE;
-  // The lifecycle decides whether the case takes events at all (a signed-off one does not).
-  const lifecycle = next(c.review_status, 'record');
+  // The lifecycle decides whether the case takes the event at all (a signed-off one takes none).
+  const action = lifecycleAction(e, known);
+  const lifecycle = next(c.review_status, action);
   if (isRefusal(lifecycle)) return { error: lifecycle.refused };
+  if (action === 'discard' && known.filled.has(e.caseId)) {
+    return {
+      error:
+        'this case has a filled canal (a master cone is seated), so it stays on the record; ask your attending if it was opened by mistake',
+    };
+  }
   const canal = e.canalId === undefined ? undefined : known.canals.get(e.canalId);
   const ours = canal?.studentId === known.userId;
   if (e.type === 'canal.added') {
@@ -100,6 +111,16 @@ export function refusal(e: LogEvent, known: Known): Refusal | null {
   }
   const ref = (e.data as { eventId?: unknown }).eventId;
   return typeof ref === 'string' ? targetRefusal(e, ref, known) : null;
+}
+
+/** What an event does to its case's lifecycle: discard it, restore it (voiding its discard), or record. */
+export function lifecycleAction(e: LogEvent, known: Known): CaseAction {
+  if (e.type === 'case.discarded') return 'discard';
+  if (e.type === 'event.voided' && e.canalId === undefined) {
+    const target = known.targets.get(e.data.eventId);
+    if (target?.type === 'case.discarded' && target.user_id === known.userId) return 'restore';
+  }
+  return 'record';
 }
 
 /** Checks of a void or a withdrawn cone against the event it names. */

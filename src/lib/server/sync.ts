@@ -6,8 +6,20 @@
 import type { Knex } from 'knex';
 import { canonicalEvent, parseEvent, type CanalResult, type LogEvent } from '../rules/index';
 import { addCanal, currentJudge, openCase, projectCase } from './projection';
-import { keep, limitBreach, priorFate, refusal, type Known, type KnownCase, type KnownEvent } from './sync-admit';
+import {
+  keep,
+  lifecycleAction,
+  limitBreach,
+  priorFate,
+  refusal,
+  type Known,
+  type KnownCase,
+  type KnownEvent,
+} from './sync-admit';
+import { isRefusal, next } from '../rules/index';
 import { loadTallies } from './sync-limits';
+import { REMOVED } from './canal-store';
+import type { CaseRow } from './tables';
 
 import { CONTRACT_VERSION, type SyncAnswer, type SyncResult } from '../contract';
 
@@ -56,11 +68,19 @@ async function loadKnown(trx: Knex, userId: number, parsed: Parsed[], refused: S
     'id',
     unique(events.map((e) => e.id)),
   );
-  const cases = await selectIn<KnownCase>(
-    () => trx('cases').select('id', 'student_id', 'review_status'),
+  const caseRows = await selectIn<Omit<KnownCase, 'review_status'> & Pick<CaseRow, 'review_status' | 'discarded_at'>>(
+    () => trx('cases').select('id', 'student_id', 'review_status', 'discarded_at'),
     'id',
     unique(events.map((e) => e.caseId)),
   );
+  const cases: KnownCase[] = caseRows.map((c) => ({
+    id: c.id,
+    student_id: c.student_id,
+    review_status: c.discarded_at === null ? c.review_status : 'discarded',
+  }));
+  // Only asked when the batch discards a case: which of them have a filled canal.
+  const discarding = unique(events.filter((e) => e.type === 'case.discarded').map((e) => e.caseId));
+  const filled = discarding.length === 0 ? [] : await filledCases(trx, discarding);
   const canals = await selectIn<{ id: string; case_id: string; student_id: number }>(
     () =>
       trx('canals')
@@ -88,7 +108,23 @@ async function loadKnown(trx: Knex, userId: number, parsed: Parsed[], refused: S
     targets: new Map(targets.map((t) => [t.id, t])),
     refused,
     tallies,
+    filled: new Set(filled),
   };
+}
+
+/**
+ * Which of the cases have a live canal with a seated master cone. A canal judged before the
+ * state recorded `unfilled` (rules version 1) counts as filled when its master cone is seated.
+ */
+async function filledCases(trx: Knex, caseIds: string[]): Promise<string[]> {
+  const rows: { case_id: string }[] = await trx('canals')
+    .distinct('case_id')
+    .whereIn('case_id', caseIds)
+    .whereNot('status', REMOVED)
+    .whereRaw(
+      "coalesce(json_extract(state_json, '$.unfilled'), 1 - coalesce(json_extract(state_json, '$.masterCone.seated'), 0)) = 0",
+    );
+  return rows.map((r) => r.case_id);
 }
 
 /** Stores what it can of one batch for `userId` (a student) sent from `deviceId`. */
@@ -156,6 +192,15 @@ export async function ingestBatch(
         await addCanal(trx, { id: e.canalId!, case_id: e.caseId, name: e.data.name });
         known.canals.set(e.canalId!, { caseId: e.caseId, studentId: userId });
       }
+      // A discard or its void moves the case at once for the rest of the batch; the projection
+      // settles the stored state from the events that stand.
+      const action = lifecycleAction(e, known);
+      if (action !== 'record') {
+        const c = known.cases.get(e.caseId)!;
+        const moved = next(c.review_status, action);
+        if (!isRefusal(moved)) known.cases.set(e.caseId, { ...c, review_status: moved });
+      }
+      if (e.type === 'master.seated') known.filled.add(e.caseId);
       keep(e, known);
       known.kept.set(e.id, canonical);
       toInsert.push({
@@ -190,7 +235,7 @@ export async function ingestBatch(
     for (let i = 0; i < toInsert.length; i += 250) await trx('events').insert(toInsert.slice(i, i + 250));
     const canals: CanalResult[] = [];
     for (const [caseId, which] of touched) {
-      canals.push(...(await projectCase(trx, known.cases.get(caseId)!, which, submittedCases.has(caseId), judge)));
+      canals.push(...(await projectCase(trx, caseId, which, submittedCases.has(caseId), judge, userId)));
     }
     return {
       contractVersion: CONTRACT_VERSION,

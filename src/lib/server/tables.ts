@@ -47,6 +47,8 @@ export interface CaseRow {
   opened_at: string;
   submitted_at: string | null;
   review_status: ReviewStatus;
+  /** Set while a `case.discarded` stands: the lifecycle's `discarded` state (review_status is kept beneath it). */
+  discarded_at: string | null;
   signed_off_at: string | null;
   updated_at: string;
 }

@@ -39,6 +39,16 @@ const TABLE: [CaseState, CaseAction, CaseState | RegExp][] = [
   ['discarded', 'withdraw', /discarded/],
   ['discarded', 'return', /discarded/],
   ['discarded', 'approve', /discarded/],
+  ['open', 'discard', 'discarded'],
+  ['open', 'restore', /not discarded/],
+  ['submitted', 'discard', /withdraw the submission before discarding/],
+  ['submitted', 'restore', /not discarded/],
+  ['returned', 'discard', /reviewed and is kept on the record/],
+  ['returned', 'restore', /not discarded/],
+  ['approved', 'discard', /signed off/],
+  ['approved', 'restore', /not discarded/],
+  ['discarded', 'discard', /discarded/],
+  ['discarded', 'restore', 'open'],
 ];
 
 describe('next', () => {
