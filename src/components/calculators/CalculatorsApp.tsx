@@ -33,7 +33,7 @@ export default function CalculatorsApp() {
   }, []);
   const { Body } = current;
   return (
-    <div data-testid="calculators" data-ready="true">
+    <div data-testid="calculators">
       {update && (
         <div className="bg-note text-white px-4 py-2 mb-3 rounded-lg flex items-center gap-4" role="status">
           <p className="text-lg">A new version of Coneline is ready.</p>
