@@ -96,7 +96,8 @@ describe('the migrations', () => {
     });
     expect(await k('users').first('demo')).toMatchObject({ demo: 0 });
     expect(await k('cohorts').first('demo')).toMatchObject({ demo: 0 });
-    // The demo marker is undone by the second step down (the projection's migration is first).
+    // The demo marker is undone by the third step down (the discard column's, then the projection's, come first).
+    await k.migrate.down({ migrationSource: bundledMigrations });
     await k.migrate.down({ migrationSource: bundledMigrations });
     await k.migrate.down({ migrationSource: bundledMigrations });
     const user: unknown = await k('users').first();
@@ -106,8 +107,33 @@ describe('the migrations', () => {
     expect(await k('sessions').pluck('id')).toEqual(['s1']);
   });
 
+  it('add a discard column to cases, and roll it back keeping every case, canal and event', async () => {
+    await k.migrate.latest({ migrationSource: bundledMigrations });
+    const [userId] = (
+      await k('users').insert({ email: 'd@example.org', name: 'D', role: 'student' }).returning('id')
+    ).map((r) => (r as { id: number }).id);
+    const caseId = '00000000-0000-4000-8000-000000000020';
+    await k('cases').insert({ id: caseId, student_id: userId, setting: 'block', opened_at: '2026-12-01T09:00:00Z' });
+    await k('canals').insert({
+      id: '00000000-0000-4000-8000-000000000021',
+      case_id: caseId,
+      name: 'Main',
+      status: 'set-up',
+      state_json: '{}',
+    });
+    await k('cases').where({ id: caseId }).update({ discarded_at: '2026-12-01T09:05:00Z' });
+    await k.migrate.down({ migrationSource: bundledMigrations });
+    const row: unknown = await k('cases').where({ id: caseId }).first();
+    expect(row).not.toHaveProperty('discarded_at');
+    // Rebuilding cases must not cascade to its canals.
+    expect(await k('canals').where({ case_id: caseId })).toHaveLength(1);
+    await k.migrate.latest({ migrationSource: bundledMigrations });
+    expect(await k('cases').where({ id: caseId }).first('discarded_at')).toEqual({ discarded_at: null });
+  });
+
   it('open a history row for every finding already stored, split the old tolerances row, and roll back keeping the findings', async () => {
     await k.migrate.latest({ migrationSource: bundledMigrations });
+    await k.migrate.down({ migrationSource: bundledMigrations }); // the discard column
     await k.migrate.down({ migrationSource: bundledMigrations }); // back to before the projection
     const [userId] = (
       await k('users').insert({ email: 's@example.org', name: 'S', role: 'student' }).returning('id')

@@ -197,6 +197,11 @@ describe('the calculators page', () => {
       await expect(page.getByTestId('thirds-result').textContent()).resolves.toContain(
         'Orifice depth estimated: 7.5 mm',
       );
+      // An upper canine (27 mm on average) scales the stop depth to 12 × 27 ÷ 21 = 15.43 mm (judgement):
+      // the orifice is then kept at half the CWL, 10.5 mm, and the coronal third ends at 14.0 mm.
+      await chip(page, 'Upper canine');
+      await expect(page.getByTestId('thirds-complete').textContent()).resolves.toBe('14.0 mm or less');
+      await expect(page.getByTestId('thirds-result').textContent()).resolves.toContain('stop depth of 15.43 mm');
       await checkPage(page, 'canal thirds');
       await shot('thirds');
 

@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { canalThirds, DEFAULT_TOLERANCES, floorToHalf } from '../../lib/rules/core';
+import { canalThirds, DEFAULT_TOLERANCES, fallbackStopDepthFor, floorToHalf } from '../../lib/rules/core';
 import { mmValue } from '../../lib/present/format';
 import { Chip, ChipGroup } from '../chairside/AnswerButtons';
 import { LengthInput } from './LengthInput';
@@ -17,12 +17,27 @@ function Depth({ mm }: { mm: number }) {
   );
 }
 
+// For an estimated orifice: the rules core scales the stop depth on anterior teeth by their
+// average length (fallbackStopDepthFor); the left side's averages are the right side's.
+const TEETH = [
+  { fdi: undefined, words: 'Premolar or molar' },
+  { fdi: 11, words: 'Upper central incisor' },
+  { fdi: 12, words: 'Upper lateral incisor' },
+  { fdi: 13, words: 'Upper canine' },
+  { fdi: 41, words: 'Lower central incisor' },
+  { fdi: 42, words: 'Lower lateral incisor' },
+  { fdi: 43, words: 'Lower canine' },
+] as const;
+
 /** The thirds of a canal from its orifice to the CWL, and the depth at which compaction is complete. */
 export function Thirds() {
   const [cwl, setCwl] = useState(21);
   const [measured, setMeasured] = useState(true);
   const [orifice, setOrifice] = useState(9);
-  const t = canalThirds(cwl, measured ? Math.min(orifice, cwl) : undefined);
+  const [tooth, setTooth] = useState<number | undefined>(undefined);
+  const s = DEFAULT_TOLERANCES.fallbackStopDepthMm;
+  const stopDepth = fallbackStopDepthFor(tooth, s);
+  const t = canalThirds(cwl, measured ? Math.min(orifice, cwl) : undefined, s, tooth);
   const rows = [
     { name: 'Coronal third', from: t.orificeMm, to: t.coronalEndMm },
     { name: 'Middle third', from: t.coronalEndMm, to: t.middleEndMm },
@@ -38,8 +53,7 @@ export function Thirds() {
         <p className="text-base text-muted tabular">
           the end of the coronal third: {exact(t.orificeMm)} + ({exact(t.cwlMm)} − {exact(t.orificeMm)}) ÷ 3 ={' '}
           {exact(t.coronalEndMm)} mm, rounded down to the 0.5 mm step
-          {t.estimated &&
-            `; orifice estimated from a stop depth of ${mmValue(DEFAULT_TOLERANCES.fallbackStopDepthMm)} mm`}
+          {t.estimated && `; orifice estimated from a stop depth of ${exact(stopDepth)} mm`}
         </p>
         <table className="mt-2 text-lg border-collapse">
           <caption className="sr-only">Canal thirds, depths from the reference point in mm</caption>
@@ -74,8 +88,9 @@ export function Thirds() {
         </table>
         {t.estimated && (
           <p className="text-base mt-2">
-            Orifice depth estimated: <strong className="tabular">{mmValue(floorToHalf(t.orificeMm))} mm</strong>. Your
-            clinic may set another stop depth; the chairside uses the clinic&apos;s.
+            Orifice depth estimated: <strong className="tabular">{mmValue(floorToHalf(t.orificeMm))} mm</strong>, from
+            the usual stop depth of {mmValue(s)} mm{tooth !== undefined && ", scaled by the tooth's average length"}.
+            Your clinic may set another stop depth; the chairside uses the clinic&apos;s.
           </p>
         )}
       </div>
@@ -88,6 +103,15 @@ export function Thirds() {
           Not measured
         </Chip>
       </ChipGroup>
+      {!measured && (
+        <ChipGroup label="Tooth">
+          {TEETH.map((x) => (
+            <Chip key={x.words} selected={tooth === x.fdi} onTap={() => setTooth(x.fdi)}>
+              {x.words}
+            </Chip>
+          ))}
+        </ChipGroup>
+      )}
       {measured && (
         <LengthInput
           label="Orifice depth"

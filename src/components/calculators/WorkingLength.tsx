@@ -1,5 +1,6 @@
 import { useState } from 'react';
 import {
+  APEX_LOCATOR_BACK_OFF_MM,
   resorptionAllowanceMm,
   RESORPTIONS,
   workingLengthByDiscrepancy,
@@ -69,12 +70,12 @@ export function Discrepancy() {
   );
 }
 
-const BACK_OFFS = [0.5, 1.0] as const;
+const BACK_OFFS = [APEX_LOCATOR_BACK_OFF_MM.min, APEX_LOCATOR_BACK_OFF_MM.max];
 
 /** Electronic apex locator: the reading less 0.5–1.0 mm. */
 export function ApexLocator() {
   const [reading, setReading] = useState(22);
-  const [backOff, setBackOff] = useState<number>(0.5);
+  const [backOff, setBackOff] = useState<number>(APEX_LOCATOR_BACK_OFF_MM.min);
   const wl = workingLengthFromApexLocator(reading, backOff);
   return (
     <>

@@ -1,5 +1,6 @@
 // Chairside calculators. Sources and labels from docs/references.md. Invalid input gives NaN (or
 // an empty schedule) rather than an exception, so a half-typed form never breaks a screen.
+import { CONELINE, type Sourced } from './labels';
 import { ISO_SIZES, diameterAtMm, isIsoSize, isoColour, tipDiameterMm, type IsoColourName } from './sizes';
 
 /** Rounds to 0.01 mm, dropping float noise (22.727… → 22.73). */
@@ -26,11 +27,23 @@ export function floorToHalf(mm: number): number {
   return (Math.floor(hundredths / 50) * 50) / 100;
 }
 
+/** Rounding every derived length down (floorToHalf) is our judgement. */
+export const FLOOR_TO_HALF_SOURCE: Sourced = { source: CONELINE, label: 'judgement' };
+
 /** What the radiograph shows around the apex, which sets how far short the working length is. */
 export type Resorption = 'none' | 'bone' | 'bone-and-root';
 export const RESORPTIONS: readonly Resorption[] = Object.freeze(['none', 'bone', 'bone-and-root']);
-// Ingle; Weine; Grossman's Endodontic Practice, 13th ed. (secondary pages) — seen.
-const RESORPTION_ALLOWANCE_MM: Readonly<Record<Resorption, number>> = { none: 1, bone: 1.5, 'bone-and-root': 2 };
+/** How far short of the actual length the working length is, by resorption (DISCREPANCY_SOURCE). */
+export const RESORPTION_ALLOWANCE_MM: Readonly<Record<Resorption, number>> = Object.freeze({
+  none: 1,
+  bone: 1.5,
+  'bone-and-root': 2,
+});
+/** The radiographic (discrepancy) method and its allowances. */
+export const DISCREPANCY_SOURCE: Sourced = {
+  source: "Ingle; Weine; Grossman's Endodontic Practice, 13th ed. (secondary pages)",
+  label: 'seen',
+};
 
 /**
  * Radiographic (discrepancy) method — Ingle; Weine; Grossman's Endodontic Practice, 13th ed.
@@ -57,20 +70,37 @@ export function workingLengthByDiscrepancy(
   return { actualLengthMm: roundToHundredth(actual), workingLengthMm: roundToHundredth(actual - allowance) };
 }
 
+/** How far short of an apex locator's reading the working length is, mm (APEX_LOCATOR_SOURCE). */
+export const APEX_LOCATOR_BACK_OFF_MM = Object.freeze({ min: 0.5, max: 1.0 });
+export const APEX_LOCATOR_SOURCE: Sourced = { source: 'Jung et al., J Endod; BioMed Res Int 2020', label: 'seen' };
+
 /**
  * Working length from an electronic apex locator reading: 0.5–1.0 mm short of the reading
  * (Jung et al., J Endod; BioMed Res Int 2020 — seen). The back-off defaults to 0.5 mm; NaN
  * when it is outside 0.5–1.0 or the reading is not a positive length.
  */
-export function workingLengthFromApexLocator(readingMm: number, backOffMm = 0.5): number {
+export function workingLengthFromApexLocator(readingMm: number, backOffMm = APEX_LOCATOR_BACK_OFF_MM.min): number {
   if (!(readingMm > 0) || !Number.isFinite(readingMm)) return Number.NaN;
-  if (!(backOffMm >= 0.5 && backOffMm <= 1.0)) return Number.NaN;
+  if (!(backOffMm >= APEX_LOCATOR_BACK_OFF_MM.min && backOffMm <= APEX_LOCATOR_BACK_OFF_MM.max)) return Number.NaN;
   return roundToHundredth(readingMm - backOffMm);
 }
 
+/** The proportional formula is Grossman's, read in secondary pages quoting it. */
+export const PROPORTIONAL_SOURCE: Sourced = {
+  source: "Grossman's formula, Grossman's Endodontic Practice",
+  label: 'seen (secondary)',
+};
+
+/** Mullaney's step of 1.0 mm per size, and the 0.5 mm step Allison et al. used. */
+export const STEP_BACK_SOURCES: Readonly<Record<'1.0' | '0.5', Sourced>> = {
+  '1.0': { source: 'Mullaney, Dent Clin North Am 1979;23(4):575–92', label: 'seen' },
+  '0.5': { source: 'Allison, Weber & Walton, J Endod 1979;5(10):298–304', label: 'seen' },
+};
+
 /**
- * Proportional method — Grossman / Best (secondary) — seen: actual length = actual file
- * length × radiographic tooth length ÷ radiographic file length, rounded to 0.01 mm.
+ * Proportional method — Grossman's formula (Grossman's Endodontic Practice, seen in secondary
+ * pages): actual length = actual file length × radiographic tooth length ÷ radiographic file
+ * length, rounded to 0.01 mm.
  * Example: 20.0 × 25.0 ÷ 22.0 = 22.73 mm. NaN unless all three are positive.
  */
 export function proportionalLength(
@@ -83,9 +113,12 @@ export function proportionalLength(
   return roundToHundredth((actualFileMm * radiographicToothMm) / radiographicFileMm);
 }
 
+/** Taking the radiographic method's allowance off the proportional method's length is our judgement. */
+export const PROPORTIONAL_ALLOWANCE_SOURCE: Sourced = { source: CONELINE, label: 'judgement' };
+
 /**
  * Working length by the proportional method: the tooth length from `proportionalLength`
- * (Grossman / Best, secondary — seen) less the radiographic method's allowance (1 mm, 1.5 mm
+ * (Grossman's formula — seen, secondary) less the radiographic method's allowance (1 mm, 1.5 mm
  * with bone resorption, 2 mm with bone and root resorption — seen for that method; using it
  * after the proportional estimate too is our judgement). Example: 20.0 × 25.0 ÷ 22.0 = 22.73 mm
  * → working length 21.73 mm. NaN unless all three lengths are positive.
@@ -112,7 +145,7 @@ export function resorptionAllowanceMm(resorption: Resorption): number {
 /**
  * Step-back schedule after the MAF: each next larger ISO file is shortened by the step
  * (Mullaney, Dent Clin North Am 1979 — seen: MAF 25, then 30, 35, 40 at 1, 2, 3 mm short;
- * 0.5 mm per size is also taught — seen, sources differ). The MAF itself (at the CWL, used to
+ * 0.5 mm per size in Allison, Weber & Walton, J Endod 1979 — seen: sources differ). The MAF itself (at the CWL, used to
  * recapitulate) is not listed. Stops early at size 140 or before a length under 0.5 mm;
  * [] for a MAF that is not an ISO size, a step other than 0.5 or 1.0, or an invalid CWL.
  */
@@ -137,8 +170,8 @@ export function stepBackSchedule(
 
 /**
  * Length of the cutting part over which an ISO instrument's 0.02 taper runs, so the diameter
- * 16 mm from the tip is D16 = D0 + 0.32 mm (ADA Spec. No. 28 as quoted in study material —
- * partly; D16 is arithmetic).
+ * 16 mm from the tip is D16 = D0 + 0.32 mm (SIZE_SOURCES.standardTaper; D16 is
+ * arithmetic).
  */
 export const ISO_CUTTING_LENGTH_MM = 16;
 

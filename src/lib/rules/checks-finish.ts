@@ -1,6 +1,7 @@
 // Checks from the fill check to submission: compaction end, fill, sear-off, restoration.
 import { raise, type Finding } from './severities';
 import { toothGroup } from './teeth';
+import { fallbackStopDepthFor } from './thirds';
 import { fmtMm, gt, latest, latestBefore, lt, type CanalView } from './view';
 
 export function finishChecks(v: CanalView): Finding[] {
@@ -18,8 +19,10 @@ function completionChecks(v: CanalView): Finding[] {
   if (at === undefined) return [];
   const when = sear === undefined ? 'When compaction was finished' : 'At sear-off';
   const last = latestBefore(v.of('spreader.placed'), at.i);
+  // On an anterior tooth the rule of thumb is scaled by the tooth's average length (thirds.ts).
+  const scaled = v.isTooth && fallbackStopDepthFor(v.tooth, v.tol.fallbackStopDepthMm) !== v.tol.fallbackStopDepthMm;
   const estimate = v.thirds.estimated
-    ? ` (No orifice depth was recorded, so the thirds are estimated: the coronal third is taken to end at ${fmtMm(v.thirds.coronalEndMm)}, from the ${fmtMm(v.tol.fallbackStopDepthMm)} rule of thumb.)`
+    ? ` (No orifice depth was recorded, so the thirds are estimated: the coronal third is taken to end at ${fmtMm(v.thirds.coronalEndMm)}, from the ${fmtMm(v.tol.fallbackStopDepthMm)} rule of thumb${scaled ? " scaled to this tooth type's average length" : ''}.)`
     : '';
   // No spreader placement at all: compaction never started, so it is not complete either
   // (the checks speak only of "the last spreader depth"; this is our reading, docs/rules.md).

@@ -19,6 +19,7 @@ export { LIMITS, LIMIT_MESSAGES, CaseTally, tallyOf, tallyEvent } from './limits
 export type { CaseLimit, LimitBreach, TallyEvent } from './limits';
 export {
   DEFAULT_TOLERANCES,
+  TOLERANCE_LABELS,
   TOLERANCE_SOURCES,
   TOLERANCE_RANGES,
   resolveTolerances,
@@ -38,13 +39,22 @@ export {
 } from './lifecycle';
 export type { CaseState, CaseAction, Refusal as LifecycleRefusal } from './lifecycle';
 export type { Tolerances } from './tolerances';
+export { SOURCE_LABELS, LABEL_MEANINGS } from './labels';
+export type { SourceLabel, Sourced, LabelledValue } from './labels';
+export { referenceValues } from './reference-values';
 export { FINDINGS, FINDING_CODES, SAFETY_LINE } from './findings';
 export type { Severity, FindingCode, Finding, FindingInfo } from './findings';
 export { evaluateCanal, readCanal } from './evaluate';
 export type { CanalResult, CanalReading } from './evaluate';
 export { caseTimeline, compareEvents } from './timeline';
 export type { CanalState, CanalStatus } from './state';
-export { canalThirds, isCompactionComplete } from './thirds';
+export {
+  canalThirds,
+  isCompactionComplete,
+  fallbackStopDepthFor,
+  STOP_DEPTH_REFERENCE_LENGTH_MM,
+  STOP_DEPTH_SCALING_SOURCE,
+} from './thirds';
 export type { CanalThirds } from './thirds';
 export {
   ISO_SIZES,
@@ -59,7 +69,16 @@ export {
 export type { IsoColourName } from './sizes';
 export { isValidFdi, fdiToUniversal, universalToFdi, toothGroup, toothName } from './teeth';
 export type { ToothGroup, ToothKind } from './teeth';
-export { usualCanals, referencePointsFor, averageLengthMm, SINGLE_CANAL } from './anatomy';
+export {
+  usualCanals,
+  pickCanal,
+  referencePointsFor,
+  averageLengthMm,
+  SINGLE_CANAL,
+  SECOND_CANAL_PAIR,
+  AVERAGE_LENGTHS,
+} from './anatomy';
+export type { AverageLength } from './anatomy';
 export {
   workingLengthByDiscrepancy,
   workingLengthFromApexLocator,
@@ -71,9 +90,10 @@ export {
   roundToHalf,
   roundToHundredth,
   floorToHalf,
+  APEX_LOCATOR_BACK_OFF_MM,
   ISO_CUTTING_LENGTH_MM,
   isoSizeRow,
 } from './calculators';
 export type { Resorption, IsoSizeRow } from './calculators';
-export { CALCULATOR_SOURCES, ROUNDING_SOURCE, SOURCE_KINDS, sourceKind } from './calculator-sources';
-export type { CalculatorId, SourceKind, SourcedValue } from './calculator-sources';
+export { CALCULATOR_VALUES, ROUNDING_VALUE, calculatorSources } from './calculator-sources';
+export type { CalculatorId } from './calculator-sources';

@@ -27,7 +27,7 @@ const CATALOGUE: Record<FindingCode, Omit<FindingInfo, 'severity'>> = {
     raisedWhen:
       "Tooth: the CWL differs from the average length of that tooth type (a range's midpoint) by more than the margin; no note where the table has no value for the tooth.",
     source:
-      "Grossman's Endodontic Practice 2020, table 13.2 (seen); textbooks and PMC4195450 (seen, sources differ); molars about 20–22 mm (memory).",
+      "Average lengths, each with its source in references.md: Grossman's Endodontic Practice 2020, table 13.2 (seen) for the maxillary incisors, canine and first premolar; PMC4195450 (seen) for the mandibular first premolar; Wheeler's Dental Anatomy, Physiology and Occlusion (memory: crown + root length) for the mandibular canine and the second premolars; the team's knowledge (memory) for the mandibular incisors and the molars.",
   },
   'cwl-corrected-without-reason': {
     title: 'CWL corrected with no reason',
@@ -49,14 +49,14 @@ const CATALOGUE: Record<FindingCode, Omit<FindingInfo, 'severity'>> = {
   'taper-not-checked': {
     title: 'Taper not checked',
     raisedWhen: 'The master cone is seated with no taper check recorded before it.',
-    source: `${PRACTICE}: the spreader reaches within 1 mm of the CWL before obturation; agrees with Allison, Weber & Walton, J Endod 1979 (seen).`,
+    source: `${PRACTICE}: the spreader reaches within 1 mm of the CWL before obturation; agrees with Allison, Weber & Walton, J Endod 1979 (seen) for step-back preparations.`,
   },
   'taper-short': {
     title: 'Taper check short',
     tolerance: 'taperShortMarginMm',
     raisedWhen:
       'The taper-check spreader (the latest check before the master cone was seated) stopped more than the margin short of the CWL.',
-    source: `${PRACTICE}; Allison, Weber & Walton, J Endod 1979 (seen).`,
+    source: `${PRACTICE}; Allison, Weber & Walton, J Endod 1979 (seen): within 1 mm in step-back preparations, 2 mm or less in standardised ones; the default takes the stricter 1 mm.`,
   },
   'taper-beyond-cwl': {
     title: 'Taper check past the CWL',
@@ -84,14 +84,14 @@ const CATALOGUE: Record<FindingCode, Omit<FindingInfo, 'severity'>> = {
   'master-size-mismatch': {
     title: 'Master cone size differs from the MAF',
     raisedWhen: "The master cone's size (the latest fit) differs from the MAF's.",
-    source: `${PRACTICE}: same ISO size as the MAF (one source uses a size larger: a disagreement).`,
+    source: `${PRACTICE}: same ISO size as the MAF (some teaching fits a size larger: practice, no published source named; a disagreement).`,
   },
   'master-length-mismatch': {
     title: 'Master cone not at length',
     tolerance: 'masterLengthMarginMm',
     raisedWhen:
       'The fitted master cone (the latest fit) did not reach, or was measured shorter than the CWL by more than the margin (a cone past the CWL raises `master-beyond-cwl`).',
-    source: `${PRACTICE}: the master cone goes to the full CWL (one source seats it 0.5 mm short: a disagreement).`,
+    source: `${PRACTICE}: the master cone goes to the full CWL (some teaching fits it 0.5 mm short: practice, no published source named; a disagreement).`,
   },
   'master-beyond-cwl': {
     title: 'Master cone past the CWL',
@@ -127,7 +127,7 @@ const CATALOGUE: Record<FindingCode, Omit<FindingInfo, 'severity'>> = {
     tolerance: 'firstSpreaderMarginMm',
     raisedWhen:
       'The first spreader placement after the master cone was seated stopped more than the margin short of the CWL.',
-    source: `${PRACTICE}: the first placement reaches within 2 mm of the CWL; Allison, Weber & Walton, J Endod 1979 (seen).`,
+    source: `${PRACTICE}: the first placement reaches within 2 mm of the CWL. Allison, Weber & Walton, J Endod 1979 (seen) support 2 mm only in standardised preparations (1 mm in step-back ones); the default takes 2 mm for every preparation.`,
   },
   'accessory-without-spreader': {
     title: 'Accessory cone without a spreader placement',

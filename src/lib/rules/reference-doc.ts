@@ -1,6 +1,8 @@
 // Renders docs/rules.md from the catalogue, so the reference page cannot drift from the code.
 // scripts/gen-rules-doc.ts writes it; a test regenerates it and compares.
 import { FINDINGS, FINDING_CODES, SAFETY_LINE } from './findings';
+import { averageLengthMm } from './anatomy';
+import { fallbackStopDepthFor, STOP_DEPTH_REFERENCE_LENGTH_MM } from './thirds';
 import { DEFAULT_TOLERANCES, TOLERANCE_RANGES, TOLERANCE_SOURCES, type Tolerances } from './tolerances';
 
 /** How this module reads the places where the checks' wording leaves room; each is also commented in the code. */
@@ -33,7 +35,13 @@ const THIRDS: readonly string[] = [
   'Lateral compaction is complete once the latest spreader depth is at most `o + L/3`: the spreader no longer passes the coronal third.',
   '',
   "Where a tooth's orifice depth was not recorded, `o` is estimated so that the coronal third ends at the fallback stop depth `s` (`fallbackStopDepthMm`, trade teaching of about 10–12 mm from a cusp tip): `o = (3s − CWL) / 2`, kept within `[0, CWL / 2]`. For a CWL of 21 mm and `s` = 12 mm the orifice is put at 7.5 mm. Such thirds are marked as estimated, and `compaction-incomplete` says so.",
+  '',
+  `On a permanent anterior tooth (FDI x1–x3) \`s\` is scaled by the tooth type's average length \`A\` (the table \`averageLengthMm\` reads, references.md): \`s_tooth = s × A / ${STOP_DEPTH_REFERENCE_LENGTH_MM}\`, and \`o = (3 s_tooth − CWL) / 2\` as above. This scaling is our judgement, not a published value: a long canine's coronal third ends deeper than a short incisor's, and ${STOP_DEPTH_REFERENCE_LENGTH_MM} mm is the length the rule of thumb is taken to be made for — the middle of the 20–22.5 mm most tooth types in the table fall within, and the molars' average, so a molar's estimate is unchanged. With \`s\` = 12 mm a maxillary canine (A = ${averageLengthMm(13)} mm) gets ${fmt2(fallbackStopDepthFor(13, 12))} mm and a mandibular central incisor (A = ${averageLengthMm(31)} mm) ${fmt2(fallbackStopDepthFor(31, 12))} mm. Premolars, molars, primary teeth and training blocks keep \`s\`.`,
 ];
+
+function fmt2(v: number): string {
+  return (Math.round(v * 100) / 100).toFixed(2);
+}
 
 /** What the rules derive for one canal (state.ts); the server adds the review states. */
 const DERIVED_STATE: readonly string[] = [
@@ -61,7 +69,7 @@ export function renderRulesDoc(): string {
     '',
     `> ${SAFETY_LINE}`,
     '',
-    'Severity: **stop** must be put right before the canal can be signed off; **caution** the attending must see; **note** is information. "Tooth:" marks checks that do not apply to a training block. Source labels (seen, partly, memory, practice) are those of [references.md](references.md).',
+    'Severity: **stop** must be put right before the canal can be signed off; **caution** the attending must see; **note** is information. "Tooth:" marks checks that do not apply to a training block. Source labels (seen, partly, memory, practice, judgement) are those of [references.md](references.md); "trade teaching" means common practice with no published source, "team\'s knowledge" a value from memory, "Coneline" our own judgement.',
     '',
     '## Findings',
     '',

@@ -90,7 +90,7 @@ export const textbookCanal: fc.Arbitrary<TextbookCase> = fc
     const orifice =
       g.orificeShare === undefined ? (isTooth ? undefined : 0) : Math.floor((g.cwl * g.orificeShare) / 100) / 1;
     const orificeMm = orifice === undefined ? undefined : Math.floor(orifice * 2) / 2;
-    const thirds = canalThirds(g.cwl, orificeMm);
+    const thirds = canalThirds(g.cwl, orificeMm, undefined, isTooth ? g.tooth : undefined);
     const drafts: Draft[] = [
       {
         type: 'case.opened',

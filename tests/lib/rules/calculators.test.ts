@@ -59,7 +59,7 @@ describe('stepBackSchedule', () => {
       { size: '40', lengthMm: 18 },
     ]);
   });
-  it('steps 0.5 mm per size when asked (Allison 1979; dental texts — seen, sources differ)', () => {
+  it('steps 0.5 mm per size when asked (Allison, Weber & Walton 1979 — seen; Mullaney uses 1.0 mm)', () => {
     expect(stepBackSchedule('25', 21, 0.5, 4).map((s) => s.lengthMm)).toEqual([20.5, 20, 19.5, 19]);
   });
   it('crosses from 60 to 70 and stops at 140', () => {
@@ -79,7 +79,7 @@ describe('roundToHalf', () => {
 });
 
 describe('floorToHalf', () => {
-  it("rounds Grossman's proportional method down: 20 × 25 ÷ 22 = 22.73 → 22.5 mm (Grossman / Best, secondary — seen; worked example computed)", () => {
+  it("rounds Grossman's proportional method down: 20 × 25 ÷ 22 = 22.73 → 22.5 mm (Grossman's formula — seen, secondary; worked example computed)", () => {
     expect(floorToHalf(proportionalLength(20, 25, 22))).toBe(22.5);
   });
   it('never rounds up, even a hundredth short of the next step: 22.99 → 22.5, 22.51 → 22.5, 22.49 → 22.0', () => {
@@ -135,7 +135,7 @@ describe('workingLengthFromApexLocator with floorToHalf', () => {
 });
 
 describe('workingLengthByProportion', () => {
-  it("takes the radiographic method's 1 mm off Grossman's 22.73 mm: 21.73, shown as 21.5 mm (seen; the allowance here is our judgement; computed)", () => {
+  it("takes the radiographic method's 1 mm off Grossman's 22.73 mm: 21.73, shown as 21.5 mm (Grossman's formula — seen, secondary; the allowance here is Coneline's judgement; computed)", () => {
     const r = workingLengthByProportion(20, 25, 22);
     expect(r).toEqual({ actualLengthMm: 22.73, workingLengthMm: 21.73 });
     expect(floorToHalf(r.workingLengthMm)).toBe(21.5);
@@ -157,7 +157,7 @@ describe('resorptionAllowanceMm', () => {
 });
 
 describe('isoSizeRow', () => {
-  it('gives size 30 blue with D0 0.30 mm and D16 0.62 mm (ISO 3630-1 as summarised — seen, partly; D16 computed)', () => {
+  it('gives size 30 blue with D0 0.30 mm and D16 0.62 mm (ISO 3630-1; ANSI/ADA Specification No. 28 — memory; D16 computed)', () => {
     expect(isoSizeRow('30')).toEqual({
       size: '30',
       colour: 'blue',
@@ -167,7 +167,7 @@ describe('isoSizeRow', () => {
       d16Mm: 0.62,
     });
   });
-  it('gives size 06 pink with D16 0.38 mm and size 140 black with D16 1.72 mm (memory; partly; computed)', () => {
+  it('gives size 06 pink with D16 0.38 mm and size 140 black with D16 1.72 mm (ISO 3630-1 — memory; computed)', () => {
     expect(isoSizeRow('06')).toMatchObject({ colour: 'pink', d0Mm: 0.06, d16Mm: 0.38 });
     expect(isoSizeRow('140')).toMatchObject({ colour: 'black', d0Mm: 1.4, d16Mm: 1.72 });
   });
