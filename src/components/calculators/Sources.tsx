@@ -1,5 +1,12 @@
 import { calculatorSources, LABEL_MEANINGS, type CalculatorId } from '../../lib/rules/core';
 
+/** Text as docs/references.md writes it, with its `code` parts set as code. */
+function Md({ text }: { text: string }) {
+  return (
+    <>{text.split('`').map((part, i) => (i % 2 === 1 ? <code key={i}>{part}</code> : <span key={i}>{part}</span>))}</>
+  );
+}
+
 /**
  * Where a calculator's values come from and how sure we are: the rows of the rules core's
  * referenceValues() (the same as docs/references.md, "Values in the code"), with what each
@@ -17,8 +24,10 @@ export function Sources({ id }: { id: CalculatorId }) {
         {list.map((v) => (
           <li key={v.id} className="text-base" data-value={v.id}>
             <span className="inline-block mr-2 px-2 rounded border-2 border-ink font-bold text-sm">{v.label}</span>
-            {v.what}: {v.value}. <span className="text-muted">Source: </span>
-            <cite className="not-italic">{v.source}</cite>
+            <Md text={v.what} />: <Md text={v.value} />. <span className="text-muted">Source: </span>
+            <cite className="not-italic">
+              <Md text={v.source} />
+            </cite>
           </li>
         ))}
       </ul>
