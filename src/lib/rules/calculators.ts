@@ -71,7 +71,7 @@ export function workingLengthByDiscrepancy(
 }
 
 /** How far short of an apex locator's reading the working length is, mm (APEX_LOCATOR_SOURCE). */
-export const APEX_LOCATOR_BACK_OFF_MM = Object.freeze({ min: 0.5, max: 1.0 });
+export const APEX_LOCATOR_BACK_OFF_MM: Readonly<{ min: number; max: number }> = Object.freeze({ min: 0.5, max: 1.0 });
 export const APEX_LOCATOR_SOURCE: Sourced = { source: 'Jung et al., J Endod; BioMed Res Int 2020', label: 'seen' };
 
 /**
