@@ -84,6 +84,8 @@ const MATRIX: Record<string, Row[]> = {
     },
   ],
   '/cases/[caseId]': [{ method: 'GET', path: (i) => `/cases/${i.caseId}`, expect: readers(302), variants: true }],
+  // Static and prerendered like the chairside shell, with no data in it: open to anyone.
+  '/calculators': [{ method: 'GET', path: () => '/calculators', expect: signedIn(200, 200) }],
   '/chairside': [{ method: 'GET', path: () => '/chairside', expect: signedIn(200, 200) }],
   '/forbidden': [{ method: 'GET', path: () => '/forbidden', expect: signedIn(403, 302) }],
   '/signin': [{ method: 'GET', path: () => '/signin', expect: signedIn(302, 200) }],

@@ -49,7 +49,7 @@ export type {
   RatingLevel,
   CanalRatings,
 } from './review';
-export { SOURCE_LABELS } from './labels';
+export { SOURCE_LABELS, LABEL_MEANINGS } from './labels';
 export type { SourceLabel, Sourced, LabelledValue } from './labels';
 export { referenceValues } from './reference-values';
 export { FINDINGS, FINDING_CODES, SAFETY_LINE } from './findings';
@@ -93,7 +93,17 @@ export {
   workingLengthByDiscrepancy,
   workingLengthFromApexLocator,
   proportionalLength,
+  workingLengthByProportion,
+  resorptionAllowanceMm,
+  RESORPTIONS,
   stepBackSchedule,
   roundToHalf,
   roundToHundredth,
+  floorToHalf,
+  APEX_LOCATOR_BACK_OFF_MM,
+  ISO_CUTTING_LENGTH_MM,
+  isoSizeRow,
 } from './calculators';
+export type { Resorption, IsoSizeRow } from './calculators';
+export { CALCULATOR_VALUES, ROUNDING_VALUE, calculatorSources } from './calculator-sources';
+export type { CalculatorId } from './calculator-sources';

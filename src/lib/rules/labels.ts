@@ -13,6 +13,17 @@
  */
 export type SourceLabel = 'seen' | 'seen (secondary)' | 'partly' | 'memory' | 'practice' | 'computed' | 'judgement';
 
+/** What each label means, in the words of docs/references.md's "Labels" list. */
+export const LABEL_MEANINGS: Readonly<Record<SourceLabel, string>> = Object.freeze({
+  seen: 'the value was read in a published or secondary source named here',
+  'seen (secondary)': 'read in a summary or table quoting the source named',
+  partly: 'the source was seen, but the value only in part or second-hand',
+  memory: "from the team's knowledge, not yet checked against a source here",
+  practice: 'a fact of the trade taught as common practice, with no published source',
+  computed: 'arithmetic on a method above (the worked examples the tests hold)',
+  judgement: 'our own decision on how to use a value, not a fact about teeth',
+});
+
 export const SOURCE_LABELS: readonly SourceLabel[] = [
   'seen',
   'seen (secondary)',

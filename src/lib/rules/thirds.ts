@@ -26,6 +26,9 @@ export function fallbackStopDepthFor(tooth: number | undefined, s: number): numb
   return avg === null ? s : (s * avg) / STOP_DEPTH_REFERENCE_LENGTH_MM;
 }
 
+/** Estimating the orifice from the fallback stop depth, o = (3s − CWL) / 2, is our judgement. */
+export const ORIFICE_ESTIMATE_SOURCE: Sourced = { source: CONELINE, label: 'judgement' };
+
 export interface CanalThirds {
   /** Orifice depth o from the reference point. */
   orificeMm: number;
