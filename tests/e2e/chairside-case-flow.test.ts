@@ -127,6 +127,15 @@ describe('the case around the canals on the tablet', () => {
     await page.getByRole('button', { name: 'Submit anyway' }).click();
     await page.getByTestId('submitted').waitFor();
     expect(await seriousViolations(page)).toEqual([]);
+    // While it waits for review the canal takes no steps; withdrawing the submission reopens it.
+    await page.getByTestId('tab-D').click();
+    await page.getByText('Waiting for review').waitFor();
+    await expect(page.locator('[data-testid="step"]').count()).resolves.toBe(0);
+    await page.getByRole('button', { name: 'Withdraw the submission' }).click();
+    await page.locator('[data-testid="step"][data-card="seat"]').waitFor();
+    await synced(page);
+    const c = await newestCase(DEMO.priya);
+    expect(c.types.filter((t) => t === 'event.voided')).toHaveLength(1);
     await context.close();
   });
 

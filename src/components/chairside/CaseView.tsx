@@ -6,6 +6,7 @@ import { CanalSetup } from './CanalSetup';
 import { CanalStepper } from './CanalStepper';
 import { CanalTabs } from './CanalTabs';
 import { canDiscard, DiscardCase, discardOpenCase } from './DiscardCase';
+import { lockOf, ReviewLock } from './ReviewLock';
 import { Summary } from './Summary';
 
 /** One open case: canal tabs, and below them the canal stepper, the canal set-up or the finishing card. */
@@ -15,6 +16,8 @@ export function CaseView(props: { info: CaseInfo; tablet: TabletCase }) {
   const canalId = useChairside((s) => s.canalId);
   const selectCanal = useChairside((s) => s.selectCanal);
   const serverContract = useChairside((s) => s.identity.serverContract);
+  const review = useChairside((s) => s.reviews[info.caseId]);
+  const lock = lockOf(tablet, review);
   const [view, setView] = useState<'canal' | 'add' | 'finish'>(canals.length === 0 ? 'add' : 'canal');
   const [queue, setQueue] = useState<string[]>([]);
   const [firstNew, setFirstNew] = useState<string | null>(null);
@@ -24,7 +27,9 @@ export function CaseView(props: { info: CaseInfo; tablet: TabletCase }) {
   const showAdd = view === 'add' || canals.length === 0;
 
   let body;
-  if (showAdd && queue.length > 0) {
+  if (lock !== null && view !== 'finish') {
+    body = <ReviewLock tablet={tablet} lock={lock} />;
+  } else if (showAdd && queue.length > 0) {
     body = (
       <CanalSetup
         key={queue[0]}
@@ -80,7 +85,7 @@ export function CaseView(props: { info: CaseInfo; tablet: TabletCase }) {
   } else if (view === 'finish') {
     body = (
       <>
-        <Summary info={info} tablet={tablet} />
+        <Summary info={info} tablet={tablet} locked={lock !== null} />
         <DiscardCase tablet={tablet} />
       </>
     );

@@ -15,8 +15,8 @@ const MATERIALS = {
 };
 
 /** Finishing the tooth: access restoration, post-op radiograph, each canal's findings, submit. */
-export function Summary(props: { info: CaseInfo; tablet: TabletCase }) {
-  const { info } = props;
+export function Summary(props: { info: CaseInfo; tablet: TabletCase; locked?: boolean }) {
+  const { info, locked = false } = props;
   const { canals, caseLevel } = props.tablet;
   const rows = useChairside((s) => s.rows);
   const server = useChairside((s) => s.server);
@@ -46,7 +46,7 @@ export function Summary(props: { info: CaseInfo; tablet: TabletCase }) {
 
   return (
     <div className="flex flex-col gap-4">
-      {!restored ? (
+      {!restored && !locked ? (
         <StepCard title="Restore the access" hint="Once for the tooth; it counts for every canal.">
           <ChipGroup label="Restoration">
             <Chip
@@ -86,14 +86,14 @@ export function Summary(props: { info: CaseInfo; tablet: TabletCase }) {
             </Answer>
           </Answers>
         </StepCard>
-      ) : (
+      ) : restored ? (
         <p className="text-lg">
           ✓ Access restored: {restored.data.kind}
           {restored.data.material ? `, ${restored.data.material}` : ''}
         </p>
-      )}
+      ) : null}
       {tooth &&
-        (!postOp ? (
+        (!postOp && !locked ? (
           <StepCard title="Post-operative radiograph taken?">
             <Answers>
               <Answer
@@ -104,9 +104,9 @@ export function Summary(props: { info: CaseInfo; tablet: TabletCase }) {
               </Answer>
             </Answers>
           </StepCard>
-        ) : (
+        ) : postOp ? (
           <p className="text-lg">✓ Post-operative radiograph taken</p>
-        ))}
+        ) : null)}
       <div className="grid gap-4 landscape:grid-cols-2">
         {shownCanals.map(({ c, shown }) => {
           return (
