@@ -6,6 +6,7 @@ import tailwindcss from '@tailwindcss/vite';
 import auth from 'auth-astro';
 import { networkInterfaces } from 'node:os';
 import { chairsidePwa } from './src/lib/pwa-config.mjs';
+import { ownCopies, reactChunk } from './src/lib/island-chunks.mjs';
 
 // This machine's own IPv4 addresses, so that a tablet on the local network (HTTPS=1 npm start)
 // passes the origin check; scripts/start.ts rebuilds when they change.
@@ -55,10 +56,15 @@ export default defineConfig({
   },
   server: { host: process.env.HOST ?? '127.0.0.1', port: Number(process.env.PORT ?? 4321) },
   vite: {
-    plugins: [tailwindcss()],
+    // The calculators island shares no chunk with the chairside's but React's (island-chunks.mjs).
+    plugins: [tailwindcss(), ownCopies()],
     // Terser packs the tablet's scripts a few per cent tighter than the default minifier;
     // the chairside page has a 100 KB (gzipped) budget for all its JavaScript.
-    build: { minify: 'terser', terserOptions: { compress: { passes: 2 } } },
+    build: {
+      minify: 'terser',
+      terserOptions: { compress: { passes: 2 } },
+      rollupOptions: { output: { manualChunks: reactChunk } },
+    },
     // better-sqlite3 and argon2 are native: keep them out of the server bundle.
     ssr: { external: ['better-sqlite3', '@node-rs/argon2', 'knex'] },
   },

@@ -14,7 +14,7 @@ export default defineConfig({
     // Two cores: server and browser tests each start a process of their own.
     maxWorkers: 2,
     projects: [
-      { extends: true, test: { name: 'unit', include: ['tests/lib/**/*.test.ts'] } },
+      { extends: true, test: { name: 'unit', include: ['tests/lib/**/*.test.ts', 'tests/docs/**/*.test.ts'] } },
       {
         extends: true,
         test: {

@@ -1,7 +1,9 @@
 /**
  * `npm start`: the one-command demo. Migrates, seeds the invented demo clinic into an empty
  * database, builds when the sources are newer than the build, and serves Coneline. No
- * variables needed. Real installs use `npm run serve`, which never seeds.
+ * variables needed. Real installs use `npm run serve`, which never seeds. E-mail goes to a
+ * local stand-in (maildev) with a web mailbox, whose address is printed, unless SMTP_HOST
+ * names a real mail server.
  *   npm start [-- --no-build]    --no-build: serve dist/ as it is
  */
 import { spawn } from 'node:child_process';
@@ -10,6 +12,7 @@ import { parseArgs } from 'node:util';
 import { DEMO_PASSWORD } from '../db/demo/clinic.ts';
 import { buildIfNeeded, requireBuild } from './lib/build.ts';
 import { installFacts, prepareDb } from './lib/dbtasks.ts';
+import { startMailbox, type Mailbox } from './lib/mailbox.ts';
 import { lanAddresses, tlsEnv } from './lib/tls.ts';
 
 const root = resolve(import.meta.dirname, '..');
@@ -30,16 +33,32 @@ console.log(
 if (values['no-build']) requireBuild(root);
 else buildIfNeeded(root);
 const tls = https ? await tlsEnv(root) : {};
+const scheme = https ? 'https' : 'http';
+
+// Review notices go to the local mailbox unless a real mail server is named.
+const mailbox: Mailbox | null = process.env.SMTP_HOST?.trim() ? null : await startMailbox(root);
+const mailEnv = mailbox
+  ? { SMTP_HOST: '127.0.0.1', SMTP_PORT: String(mailbox.smtpPort), SMTP_SECURE: '', SMTP_USER: '', SMTP_PASS: '' }
+  : {};
 
 const server = spawn(process.execPath, [resolve(root, 'scripts/server.mjs')], {
   cwd: root,
   stdio: 'inherit',
   // The build is a production build: React and Astro pick their fast paths from NODE_ENV.
-  env: { ...process.env, ...tls, HOST: host, PORT: port, NODE_ENV: 'production' },
+  env: {
+    ...process.env,
+    ...tls,
+    ...mailEnv,
+    PUBLIC_URL: process.env.PUBLIC_URL ?? `${scheme}://localhost:${port}`,
+    HOST: host,
+    PORT: port,
+    NODE_ENV: 'production',
+  },
 });
-const scheme = https ? 'https' : 'http';
 const password = activeDemoAccounts > 0 ? `  (demo password: ${DEMO_PASSWORD})` : '';
 console.log(`Coneline: ${scheme}://localhost:${port}${password}`);
+if (mailbox) console.log(`Mailbox (e-mail Coneline sends, kept by the local stand-in): ${mailbox.webUrl}`);
+else console.log(`E-mail goes to the mail server SMTP_HOST=${process.env.SMTP_HOST} names.`);
 if (https) {
   // What to type on the tablet: this machine's addresses on the local network.
   const lan = lanAddresses();
@@ -54,4 +73,7 @@ if (https) {
 const stop = () => server.kill('SIGTERM');
 process.on('SIGINT', stop);
 process.on('SIGTERM', stop);
-server.on('exit', (code) => process.exit(code ?? 0));
+server.on('exit', (code) => {
+  mailbox?.proc.kill('SIGTERM');
+  process.exit(code ?? 0);
+});

@@ -18,10 +18,9 @@ export interface InstallFacts {
 }
 
 /**
- * None yet: nothing sends mail or stores files. When invitations and password resets send
- * mail, add 'mail'; when radiographs are stored, add 'storage'.
+ * Review notices send mail (docs/review.md); when radiographs are stored, add 'storage'.
  */
-export const BUILT_FEATURES: readonly Feature[] = [];
+export const BUILT_FEATURES: readonly Feature[] = ['mail'];
 
 interface Requirement {
   /** `core` applies to every real install; a feature's only while that feature is built. */

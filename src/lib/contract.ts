@@ -4,10 +4,20 @@
  * no I/O, so the chairside island may import it (zod bodies for forms live beside the routes
  * that read them). docs/sync-contract.md is its written form.
  */
-import type { CanalResult, EventOf, EventType, LogEvent } from './rules/core';
+import type {
+  CanalRatings,
+  CanalResult,
+  CaseState,
+  EventOf,
+  EventType,
+  LogEvent,
+  SignoffCheckpoint,
+  SignoffDecision,
+  SignoffOutcome,
+} from './rules/core';
 import { EVENT_TYPES } from './rules/core';
 
-export type { CanalResult, EventOf, EventType, LogEvent };
+export type { CanalResult, CaseState, EventOf, EventType, LogEvent };
 export { EVENT_TYPES };
 export { LIMITS } from './rules/limits';
 export type { Tolerances } from './rules/tolerances';
@@ -17,11 +27,14 @@ export type { Tolerances } from './rules/tolerances';
  * ever accepted (tablets run an older precached app until they update), and a tablet records
  * an event type only when the server it talks to knows it (EVENT_TYPE_SINCE).
  */
-export const CONTRACT_VERSION = 1;
+export const CONTRACT_VERSION = 2;
+
+/** Event types added after version 1, with the version that added them. */
+const ADDED: Partial<Record<EventType, number>> = { 'compaction.finished': 2, 'case.discarded': 2 };
 
 /** The contract version in which each event type appeared. */
 export const EVENT_TYPE_SINCE: Readonly<Record<EventType, number>> = Object.fromEntries(
-  EVENT_TYPES.map((t) => [t, 1]),
+  EVENT_TYPES.map((t) => [t, ADDED[t] ?? 1]),
 ) as Record<EventType, number>;
 
 /** True when a server reporting `serverVersion` knows events of `type`. */
@@ -88,6 +101,96 @@ export interface CaseDetail {
   reviewStatus?: ReviewStatus;
   events: LogEvent[];
   canals: CanalResult[];
+  /** Added with review (issue 11): every sign-off, oldest first. Absent from older servers. */
+  signoffs?: Signoff[];
+  /** Added with review (issue 11): every comment, oldest first. Absent from older servers. */
+  comments?: ReviewComment[];
+}
+
+// --- review: sign-offs and comments (docs/review.md) ----------------------------------
+
+export { SIGNOFF_CHECKPOINTS, SIGNOFF_DECISIONS, RATING_KEYS, RATING_LEVELS } from './rules/core';
+export type {
+  SignoffCheckpoint,
+  SignoffDecision,
+  SignoffOutcome,
+  RatingKey,
+  RatingLevel,
+  CanalRatings,
+} from './rules/core';
+
+/** The body of POST /api/cases/{caseId}/signoffs. */
+export interface SignoffRequest {
+  /** Made by the client (UUID); the same id again answers the first answer. */
+  id: string;
+  checkpoint: SignoffCheckpoint;
+  /** Required for `cone-fit` and `fill-check`; absent for `final`. */
+  canalId?: string;
+  decision: SignoffDecision;
+  /** By canal id. */
+  ratings?: Record<string, CanalRatings>;
+  /** Required on a return (≤ 2,000 characters). */
+  comment?: string;
+  /** The case state the attending saw; 409 when it changed since. */
+  expectedState: CaseState;
+}
+
+/** The body of POST /api/cases/{caseId}/reopen. */
+export interface ReopenRequest {
+  id: string;
+  reason: string;
+  /** Optional: the case state the attending saw; 409 when it changed since. */
+  expectedState?: CaseState;
+}
+
+/** The body of POST /api/cases/{caseId}/comments. */
+export interface CommentRequest {
+  id: string;
+  canalId?: string;
+  eventId?: string;
+  /** Trimmed, 1–2,000 characters. */
+  text: string;
+}
+
+/** One sign-off as readers see it; never changed once written, except being superseded. */
+export interface Signoff {
+  /** The client-made id; null on sign-offs made before they were an API. */
+  id: string | null;
+  checkpoint: SignoffCheckpoint;
+  canalId: string | null;
+  decision: SignoffOutcome;
+  ratings: Record<string, CanalRatings> | null;
+  comment: string | null;
+  attendingId: number;
+  attendingName: string;
+  at: string;
+  /** A final approval a reopening superseded: when. */
+  supersededAt: string | null;
+}
+
+/** One comment, anchored to the case, a canal or an event. */
+export interface ReviewComment {
+  id: string | null;
+  canalId: string | null;
+  eventId: string | null;
+  authorId: number;
+  authorName: string;
+  authorRole: Role;
+  text: string;
+  at: string;
+}
+
+/** The answer of POST …/signoffs and …/reopen. */
+export interface SignoffAnswer {
+  caseId: string;
+  reviewStatus: ReviewStatus;
+  signoff: Signoff;
+}
+
+/** The answer of POST …/comments. */
+export interface CommentAnswer {
+  caseId: string;
+  comment: ReviewComment;
 }
 
 /** The clinic's time zone and locale (CLINIC_TIME_ZONE, CLINIC_LOCALE), for showing dates and times. */

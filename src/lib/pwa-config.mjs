@@ -1,6 +1,7 @@
 // @ts-check
-// The chairside service worker: precaches the prerendered /chairside shell and its assets
-// so the tablet opens it with no network after one visit (docs/architecture.md, "Offline").
+// The chairside service worker: precaches the prerendered /chairside shell, the /calculators
+// page and their assets so the tablet opens them with no network after one visit
+// (docs/architecture.md, "Offline").
 // The island registers it with the browser's own API (src/lib/client/pwa.ts) and offers a reload
 // when a new version waits ("prompt").
 import AstroPWA from '@vite-pwa/astro';
@@ -35,7 +36,15 @@ export function chairsidePwa() {
       navigateFallbackAllowlist: [/^\/chairside\/?$/],
       navigateFallbackDenylist: [/^\/api\//],
       // The manifest is precached by the plugin itself; listing it here would add it twice.
-      globPatterns: ['chairside/**/*.html', '_astro/**/*.{js,css,woff2}', 'icons/*.{png,svg}', 'favicon.svg'],
+      // The calculators page is precached too: its exact path is answered from the precache
+      // (no navigation fallback needed), and its scripts are among _astro/**.
+      globPatterns: [
+        'chairside/**/*.html',
+        'calculators/**/*.html',
+        '_astro/**/*.{js,css,woff2}',
+        'icons/*.{png,svg}',
+        'favicon.svg',
+      ],
       cleanupOutdatedCaches: true,
       // Never cache API answers: they are personal and must come from the server or IndexedDB.
       runtimeCaching: [],

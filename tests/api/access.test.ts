@@ -53,6 +53,23 @@ const readers = (anonymous: number): Record<Actor, number> => ({
   director: 200,
 });
 
+/** Who may sign off and reopen: readers who are not the student (who gets 403); `status` for them. */
+const reviewers = (status: number): Record<Actor, number> => ({
+  anonymous: 401,
+  owner: 403,
+  otherStudent: 404,
+  assigned: status,
+  unassigned: 404,
+  director: status,
+});
+// One request id per route: the same id on another route is a different request (409).
+const MATRIX_ID = {
+  signoffs: '00000000-0000-4000-8000-00000000a11c',
+  reopen: '00000000-0000-4000-8000-00000000a11d',
+  comments: '00000000-0000-4000-8000-00000000a11e',
+  mail: '00000000-0000-4000-8000-00000000a11f',
+};
+
 /** One row per route pattern (as Astro names it). */
 const MATRIX: Record<string, Row[]> = {
   '/': [{ method: 'GET', path: () => '/', expect: signedIn(200, 302) }],
@@ -67,6 +84,8 @@ const MATRIX: Record<string, Row[]> = {
     },
   ],
   '/cases/[caseId]': [{ method: 'GET', path: (i) => `/cases/${i.caseId}`, expect: readers(302), variants: true }],
+  // Static and prerendered like the chairside shell, with no data in it: open to anyone.
+  '/calculators': [{ method: 'GET', path: () => '/calculators', expect: signedIn(200, 200) }],
   '/chairside': [{ method: 'GET', path: () => '/chairside', expect: signedIn(200, 200) }],
   '/forbidden': [{ method: 'GET', path: () => '/forbidden', expect: signedIn(403, 302) }],
   '/signin': [{ method: 'GET', path: () => '/signin', expect: signedIn(302, 200) }],
@@ -83,11 +102,51 @@ const MATRIX: Record<string, Row[]> = {
   '/api/cases/[caseId]': [
     { method: 'GET', path: (i) => `/api/cases/${i.caseId}`, expect: readers(401), variants: true },
   ],
+  // Bodies that pass validation but change nothing: a state no case is in, a canal of no case.
+  '/api/cases/[caseId]/signoffs': [
+    { method: 'GET', path: (i) => `/api/cases/${i.caseId}/signoffs`, expect: readers(401), variants: true },
+    {
+      method: 'POST',
+      path: (i) => `/api/cases/${i.caseId}/signoffs`,
+      body: { id: MATRIX_ID.signoffs, checkpoint: 'final', decision: 'approve', expectedState: 'discarded' },
+      variants: true,
+      expect: reviewers(409),
+    },
+  ],
+  '/api/cases/[caseId]/reopen': [
+    {
+      method: 'POST',
+      path: (i) => `/api/cases/${i.caseId}/reopen`,
+      body: { id: MATRIX_ID.reopen, reason: 'access matrix', expectedState: 'discarded' },
+      variants: true,
+      expect: reviewers(409),
+    },
+  ],
+  '/api/cases/[caseId]/comments': [
+    { method: 'GET', path: (i) => `/api/cases/${i.caseId}/comments`, expect: readers(401), variants: true },
+    {
+      method: 'POST',
+      path: (i) => `/api/cases/${i.caseId}/comments`,
+      body: { id: MATRIX_ID.comments, canalId: '00000000-0000-4000-8000-00000000abcd', text: 'access matrix' },
+      variants: true,
+      expect: { anonymous: 401, owner: 400, otherStudent: 404, assigned: 400, unassigned: 404, director: 400 },
+    },
+  ],
   '/api/health': [{ method: 'GET', path: () => '/api/health', expect: signedIn(200, 200) }],
   '/api/me': [{ method: 'GET', path: () => '/api/me', expect: signedIn(200, 401) }],
   // A body that cannot pass validation: the matrix must change nothing.
   '/api/me/password': [
     { method: 'POST', path: () => '/api/me/password', body: { id: 'x' }, expect: signedIn(400, 401) },
+  ],
+  '/api/me/mail': [
+    { method: 'GET', path: () => '/api/me/mail', expect: signedIn(200, 401) },
+    // Not a boolean: refused before anything is stored.
+    {
+      method: 'POST',
+      path: () => '/api/me/mail',
+      body: { id: MATRIX_ID.mail, digest: 'yes' },
+      expect: signedIn(400, 401),
+    },
   ],
   '/api/sync': [
     {

@@ -25,6 +25,15 @@ const DOMAIN_TABLES = [
   'audit_log',
 ];
 
+/** Steps down, one migration at a time, until `name` (a file name) has been undone. */
+async function undoThrough(k: Knex, name: string): Promise<void> {
+  for (;;) {
+    const [done] = (await k.migrate.list({ migrationSource: bundledMigrations })) as [{ name: string }[], unknown[]];
+    if (!done.some((m) => (typeof m === 'string' ? m : m.name) === name)) return;
+    await k.migrate.down({ migrationSource: bundledMigrations });
+  }
+}
+
 async function tables(k: Knex): Promise<string[]> {
   const rows = (await k.raw("select name from sqlite_master where type = 'table' and name not like 'sqlite_%'")) as {
     name: string;
@@ -96,9 +105,8 @@ describe('the migrations', () => {
     });
     expect(await k('users').first('demo')).toMatchObject({ demo: 0 });
     expect(await k('cohorts').first('demo')).toMatchObject({ demo: 0 });
-    // The demo marker is undone by the second step down (the projection's migration is first).
-    await k.migrate.down({ migrationSource: bundledMigrations });
-    await k.migrate.down({ migrationSource: bundledMigrations });
+    // Every later migration is undone first.
+    await undoThrough(k, '20261203000200_demo_marker.ts');
     const user: unknown = await k('users').first();
     expect(user).not.toHaveProperty('demo');
     // Rebuilding the tables must not fire their foreign keys' ON DELETE actions.
@@ -106,9 +114,33 @@ describe('the migrations', () => {
     expect(await k('sessions').pluck('id')).toEqual(['s1']);
   });
 
+  it('add a discard column to cases, and roll it back keeping every case, canal and event', async () => {
+    await k.migrate.latest({ migrationSource: bundledMigrations });
+    const [userId] = (
+      await k('users').insert({ email: 'd@example.org', name: 'D', role: 'student' }).returning('id')
+    ).map((r) => (r as { id: number }).id);
+    const caseId = '00000000-0000-4000-8000-000000000020';
+    await k('cases').insert({ id: caseId, student_id: userId, setting: 'block', opened_at: '2026-12-01T09:00:00Z' });
+    await k('canals').insert({
+      id: '00000000-0000-4000-8000-000000000021',
+      case_id: caseId,
+      name: 'Main',
+      status: 'set-up',
+      state_json: '{}',
+    });
+    await k('cases').where({ id: caseId }).update({ discarded_at: '2026-12-01T09:05:00Z' });
+    await undoThrough(k, '20261203000400_discarded_cases.ts');
+    const row: unknown = await k('cases').where({ id: caseId }).first();
+    expect(row).not.toHaveProperty('discarded_at');
+    // Rebuilding cases must not cascade to its canals.
+    expect(await k('canals').where({ case_id: caseId })).toHaveLength(1);
+    await k.migrate.latest({ migrationSource: bundledMigrations });
+    expect(await k('cases').where({ id: caseId }).first('discarded_at')).toEqual({ discarded_at: null });
+  });
+
   it('open a history row for every finding already stored, split the old tolerances row, and roll back keeping the findings', async () => {
     await k.migrate.latest({ migrationSource: bundledMigrations });
-    await k.migrate.down({ migrationSource: bundledMigrations }); // back to before the projection
+    await undoThrough(k, '20261203000300_projection.ts');
     const [userId] = (
       await k('users').insert({ email: 's@example.org', name: 'S', role: 'student' }).returning('id')
     ).map((r) => (r as { id: number }).id);
@@ -135,6 +167,54 @@ describe('the migrations', () => {
     // Dropping the canals' new columns rebuilds the table; its findings must survive it.
     await k.migrate.down({ migrationSource: bundledMigrations });
     expect(await k('findings').pluck('code')).toEqual(['fill-voids']);
+  });
+
+  it('give sign-offs and comments their client ids and add the mail outbox, and roll back keeping every sign-off, comment and user', async () => {
+    await k.migrate.latest({ migrationSource: bundledMigrations });
+    const [userId] = (
+      await k('users').insert({ email: 'a@example.org', name: 'A', role: 'attending' }).returning('id')
+    ).map((r) => (r as { id: number }).id);
+    const caseId = '00000000-0000-4000-8000-000000000030';
+    await k('cases').insert({ id: caseId, student_id: userId, setting: 'block', opened_at: '2026-12-01T09:00:00Z' });
+    const at = '2026-12-02T09:00:00Z';
+    await k('signoffs').insert({
+      case_id: caseId,
+      checkpoint: 'final',
+      decision: 'approved',
+      attending_id: userId,
+      created_at: at,
+      client_id: '00000000-0000-4000-8000-000000000031',
+    });
+    await k('comments').insert({ case_id: caseId, author_id: userId, text: 'Fine', created_at: at });
+    await k('mail_outbox').insert({
+      id: '00000000-0000-4000-8000-000000000032',
+      recipient_id: userId,
+      to_address: 'a@example.org',
+      case_id: caseId,
+      kind: 'approved',
+      subject: 's',
+      body_text: 'b',
+      status: 'pending',
+      next_attempt_at: at,
+      created_at: at,
+    });
+    await expect(
+      k('signoffs').insert({
+        case_id: caseId,
+        checkpoint: 'final',
+        decision: 'approved',
+        attending_id: userId,
+        created_at: at,
+        client_id: '00000000-0000-4000-8000-000000000031',
+      }),
+    ).rejects.toThrow(/UNIQUE/);
+    await undoThrough(k, '20261204000100_review_and_mail.ts');
+    expect(await tables(k)).not.toContain('mail_outbox');
+    expect(await k('signoffs').first()).not.toHaveProperty('client_id');
+    expect(await k('signoffs').where({ case_id: caseId })).toHaveLength(1);
+    expect(await k('comments').where({ case_id: caseId })).toHaveLength(1);
+    expect(await k('users').first()).not.toHaveProperty('mail_digest');
+    expect(await k('cases').where({ id: caseId })).toHaveLength(1);
   });
 
   it('are recorded under the same names by the Knex CLI and by the server', async () => {

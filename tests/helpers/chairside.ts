@@ -61,7 +61,7 @@ export async function setUpDistal36(page: Page): Promise<void> {
   await page.getByTestId('maf-35').click();
   await page.getByTestId('ruler-orifice').locator('button[data-mm="9"]').click();
   await page.getByTestId('save-canal').click();
-  await page.locator('[data-testid="step"][data-card="seat"]').waitFor();
+  await page.locator('[data-testid="step"][data-card="seat"][data-armed="true"]').waitFor();
 }
 
 /** A whole canal by taps, with the tablet's default answers; optionally one short cone redone. */

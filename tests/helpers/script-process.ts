@@ -14,6 +14,12 @@ const CLEARED = [
   'SERVER_KEY_PATH',
   'TRUST_PROXY',
   'ASTRO_OUT_DIR',
+  'SMTP_HOST',
+  'SMTP_PORT',
+  'SMTP_USER',
+  'SMTP_PASS',
+  'SMTP_SECURE',
+  'MAIL_FROM',
 ];
 
 export interface ScriptRun {

@@ -2,7 +2,8 @@ import { describe, expect, it } from 'vitest';
 import { BUILT_FEATURES, isLoopback, preflight, type Env, type InstallFacts } from '../../scripts/lib/preflight';
 
 const SECRET = 'x'.repeat(32);
-const REAL: InstallFacts = { activeDemoAccounts: 0 };
+// The core requirements alone; the features' own are tested below.
+const REAL: InstallFacts = { activeDemoAccounts: 0, features: [] };
 
 describe('preflight', () => {
   it.each<[string, Env, InstallFacts, RegExp[]]>([
@@ -16,7 +17,7 @@ describe('preflight', () => {
     [
       'an active demo account',
       { AUTH_SECRET: SECRET },
-      { activeDemoAccounts: 6 },
+      { activeDemoAccounts: 6, features: [] },
       [/6 active demo accounts.*npm run demo:remove/],
     ],
     ['no AUTH_SECRET', {}, REAL, [/AUTH_SECRET is not set.*openssl rand -hex 32/]],
@@ -66,7 +67,7 @@ describe('preflight', () => {
     [
       'everything wrong at once, each named',
       { HOST: '::' },
-      { activeDemoAccounts: 1 },
+      { activeDemoAccounts: 1, features: [] },
       [/1 active demo account,/, /AUTH_SECRET is not set/, /PUBLIC_HOST is not set, but HOST=::/],
     ],
   ])('%s', (_name, env, facts, expected) => {
@@ -75,8 +76,11 @@ describe('preflight', () => {
     expected.forEach((pattern, i) => expect(problems[i]).toMatch(pattern));
   });
 
-  it('asks nothing of mail or storage while no feature needs them', () => {
-    expect(BUILT_FEATURES).toEqual([]);
+  it('asks for the mail settings now that review notices send e-mail, and nothing of storage yet', () => {
+    expect(BUILT_FEATURES).toEqual(['mail']);
+    expect(preflight({ AUTH_SECRET: SECRET }, { activeDemoAccounts: 0 })).toEqual([
+      'To send e-mail (invitations, password resets, review notices), Coneline needs SMTP_HOST, MAIL_FROM, PUBLIC_URL (not set).',
+    ]);
     expect(preflight({ AUTH_SECRET: SECRET }, REAL)).toEqual([]);
   });
 

@@ -7,6 +7,12 @@ import { ROOT, TEMPLATE_DB, TSX } from '../helpers/paths';
 import { runScript, type ScriptRun } from '../helpers/script-process';
 
 const SECRET = 'serve-test-secret-serve-test-secret-0123';
+/** A real install's mail settings (nothing is sent in these tests). */
+const MAIL = {
+  SMTP_HOST: '127.0.0.1',
+  MAIL_FROM: 'Coneline <coneline@school.example>',
+  PUBLIC_URL: 'http://localhost:4321',
+};
 
 let dir: string;
 let dbFile: string;
@@ -84,8 +90,16 @@ describe('npm run serve', () => {
       expect(r.out).toContain(part);
   });
 
+  it('refuses to start without SMTP_HOST and MAIL_FROM, naming them', async () => {
+    addDirector();
+    const r = await serve({ AUTH_SECRET: SECRET, PUBLIC_URL: MAIL.PUBLIC_URL, SMTP_HOST: '', MAIL_FROM: '' });
+    expect(r.code).toBe(1);
+    expect(r.out).toContain('needs SMTP_HOST, MAIL_FROM (not set)');
+    expect(r.out).not.toContain('Coneline is listening');
+  });
+
   it('never seeds: an empty database stays empty, and serve says how to make the first director', async () => {
-    const r = await serve({ AUTH_SECRET: SECRET });
+    const r = await serve({ AUTH_SECRET: SECRET, ...MAIL });
     expect(r.out).toContain('npm run user:add');
     expect(r.out).toContain('Coneline is listening');
     const res = await fetch(`${r.baseUrl}/signin`);
@@ -95,7 +109,7 @@ describe('npm run serve', () => {
 
   it('starts on a migrated database with a director made by user:add, and answers /signin', async () => {
     addDirector();
-    const r = await serve({ AUTH_SECRET: SECRET });
+    const r = await serve({ AUTH_SECRET: SECRET, ...MAIL });
     expect(r.out).toContain('Coneline is listening');
     expect(r.out).not.toContain('npm run user:add');
     const res = await fetch(`${r.baseUrl}/signin`);

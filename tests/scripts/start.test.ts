@@ -31,5 +31,13 @@ describe('npm start', () => {
     const res = await fetch(`${running.baseUrl}/signin`);
     expect(res.status).toBe(200);
     expect(await res.text()).toContain('data-testid="demo-banner"');
+    // The local mail stand-in: its web mailbox is printed, on loopback, and answers.
+    const mailbox = /Mailbox \(e-mail Coneline sends, kept by the local stand-in\): (http:\/\/127\.0\.0\.1:\d+)/.exec(
+      running.out,
+    )?.[1];
+    expect(mailbox).toBeDefined();
+    const list = await fetch(`${mailbox}/api/email`);
+    expect(list.status).toBe(200);
+    expect(Array.isArray(await list.json())).toBe(true);
   });
 });

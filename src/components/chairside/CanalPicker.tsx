@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { usualCanals } from '../../lib/rules/core';
+import { pickCanal, SINGLE_CANAL, usualCanals } from '../../lib/rules/core';
 import { Answer, Answers, Chip, ChipGroup, StepCard } from './AnswerButtons';
 
 /** The canals to set up, proposed from the tooth's usual anatomy as toggles (editable). */
@@ -9,18 +9,25 @@ export function CanalPicker(props: {
   onPick: (names: string[]) => void;
   onCancel?: () => void;
 }) {
-  const usual = props.tooth ? usualCanals(props.tooth) : { canals: ['Main'], optional: [] };
+  const usual = props.tooth ? usualCanals(props.tooth) : { canals: [SINGLE_CANAL], optional: [] };
   const fresh = props.existing.length === 0;
   const [picked, setPicked] = useState<string[]>(fresh ? usual.canals : []);
   const [other, setOther] = useState('');
   const offered = Array.from(new Set([...usual.canals, ...usual.optional, ...picked])).filter(
     (n) => !props.existing.includes(n),
   );
-  const toggle = (n: string) => setPicked(picked.includes(n) ? picked.filter((x) => x !== n) : [...picked, n]);
+  const toggle = (n: string) => setPicked(pickCanal(usual, picked, n));
+  // A single-canal tooth that may have two: the pair replaces the single canal (pickCanal).
+  const mayHaveTwo =
+    fresh && usual.canals.length === 1 && usual.canals[0] === SINGLE_CANAL && usual.optional.length > 0;
   return (
     <StepCard
       title={fresh ? 'Which canals?' : 'Add a canal'}
-      hint="Proposed from the tooth's usual anatomy; change them to what you found."
+      hint={
+        mayHaveTwo
+          ? "Proposed from the tooth's usual anatomy. Found two canals? Add B or L: the one canal becomes B and L."
+          : "Proposed from the tooth's usual anatomy; change them to what you found."
+      }
     >
       <ChipGroup label="Canals">
         {offered.map((n) => (

@@ -63,7 +63,7 @@ export function CanalStepper(props: {
   const canalId = props.canal.canalId;
   const rows = useChairside((s) => s.rows);
   const server = useChairside((s) => s.server);
-  const finished = useChairside((s) => s.marks.finished[canalId] ?? false);
+  const marked = useChairside((s) => s.marks.finished[canalId] ?? false);
   const replaceSpreader = useChairside((s) => s.replaceSpreader[canalId] ?? false);
   const last = useChairside((s) => s.last);
   const record = useChairside((s) => s.record);
@@ -71,6 +71,8 @@ export function CanalStepper(props: {
   useEffect(() => keepAwake(), [canalId]);
 
   const canal = props.canal;
+  // Recorded as an event from contract version 2; a mark kept on the tablet before that.
+  const finished = marked || canal.reading.result.state.compactionFinished;
   const shown = useMemo(
     () => shownResult(rows, server, canal.reading.result, caseId, canalId),
     [rows, server, canal.reading, caseId, canalId],

@@ -3,7 +3,9 @@ import type { CaseInfo, TabletCase } from '../../lib/client/derive';
 import { useChairside } from '../../lib/client/store';
 import { CanalStepper } from './CanalStepper';
 import { CanalTabs } from './CanalTabs';
+import { canDiscard, DiscardCase, discardOpenCase } from './DiscardCase';
 import { Later } from './Later';
+import { lockOf, ReviewLock } from './ReviewLock';
 
 // Set-up and finishing come once per canal or tooth: loaded when first opened (see ChairsideApp).
 const CanalPicker = lazy(() => import('./CanalPicker').then((m) => ({ default: m.CanalPicker })));
@@ -16,6 +18,9 @@ export function CaseView(props: { info: CaseInfo; tablet: TabletCase }) {
   const { canals, events } = tablet;
   const canalId = useChairside((s) => s.canalId);
   const selectCanal = useChairside((s) => s.selectCanal);
+  const serverContract = useChairside((s) => s.identity.serverContract);
+  const review = useChairside((s) => s.reviews[info.caseId]);
+  const lock = lockOf(tablet, review);
   const [view, setView] = useState<'canal' | 'add' | 'finish'>(canals.length === 0 ? 'add' : 'canal');
   const [queue, setQueue] = useState<string[]>([]);
   const [firstNew, setFirstNew] = useState<string | null>(null);
@@ -25,7 +30,9 @@ export function CaseView(props: { info: CaseInfo; tablet: TabletCase }) {
   const showAdd = view === 'add' || canals.length === 0;
 
   let body;
-  if (showAdd && queue.length > 0) {
+  if (lock !== null && view !== 'finish') {
+    body = <ReviewLock tablet={tablet} lock={lock} />;
+  } else if (showAdd && queue.length > 0) {
     body = (
       <CanalSetup
         key={queue[0]}
@@ -34,7 +41,20 @@ export function CaseView(props: { info: CaseInfo; tablet: TabletCase }) {
         setting={info.setting}
         tooth={info.tooth}
         remaining={queue.length - 1}
-        onCancel={() => setQueue([])}
+        onCancel={() => {
+          // Cancelling one canal keeps the others picked; cancelling the last leaves no empty case.
+          const rest = queue.slice(1);
+          setQueue(rest);
+          if (rest.length > 0) return;
+          const first = firstNew ?? canals[0]?.canalId ?? null;
+          setFirstNew(null);
+          if (first !== null) {
+            selectCanal(first);
+            setView('canal');
+          } else if (canDiscard(tablet, serverContract)) {
+            void discardOpenCase(info.caseId, 'Cancelled before any canal was set up');
+          }
+        }}
         onDone={(id) => {
           const rest = queue.slice(1);
           const first = firstNew ?? id;
@@ -59,8 +79,19 @@ export function CaseView(props: { info: CaseInfo; tablet: TabletCase }) {
         onCancel={canals.length ? () => setView('canal') : undefined}
       />
     );
+    body = (
+      <>
+        {body}
+        <DiscardCase tablet={tablet} />
+      </>
+    );
   } else if (view === 'finish') {
-    body = <Summary info={info} tablet={tablet} />;
+    body = (
+      <>
+        <Summary info={info} tablet={tablet} locked={lock !== null} />
+        <DiscardCase tablet={tablet} />
+      </>
+    );
   } else if (selected) {
     body = (
       <CanalStepper

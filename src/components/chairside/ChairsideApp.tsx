@@ -39,6 +39,10 @@ export default function ChairsideApp() {
   }, []);
 
   const info = tablet.caseId === caseId ? tablet.info : null;
+  // Opening the new case ends "creating": leaving it later (a discard) goes back to the list.
+  useEffect(() => {
+    if (caseId) setCreating(false);
+  }, [caseId]);
 
   // The page was served with a static shell (src/pages/chairside.astro): it stays until the
   // tablet's log is open, and goes in the same frame as this island's first screen appears.
@@ -80,7 +84,7 @@ export default function ChairsideApp() {
         <OpenCase onCancel={() => setCreating(false)} />
       </Later>
     );
-  else if (!caseId || !info) body = <CaseList onNew={() => setCreating(true)} />;
+  else if (!caseId || !info || info.discarded) body = <CaseList onNew={() => setCreating(true)} />;
   else body = <CaseView key={caseId} info={info} tablet={tablet} />;
 
   return (

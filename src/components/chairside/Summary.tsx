@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { canalTitle } from '../../lib/present/labels';
+import { canalTitle, isUnfilled } from '../../lib/present/labels';
 import type { EventData, EventType } from '../../lib/contract';
 import type { EventOf } from '../../lib/rules/core';
 import type { CaseInfo, TabletCase } from '../../lib/client/derive';
@@ -15,24 +15,38 @@ const MATERIALS = {
 };
 
 /** Finishing the tooth: access restoration, post-op radiograph, each canal's findings, submit. */
-export function Summary(props: { info: CaseInfo; tablet: TabletCase }) {
-  const { info } = props;
+export function Summary(props: { info: CaseInfo; tablet: TabletCase; locked?: boolean }) {
+  const { info, locked = false } = props;
   const { canals, caseLevel } = props.tablet;
   const rows = useChairside((s) => s.rows);
   const server = useChairside((s) => s.server);
   const record = useChairside((s) => s.record);
   const [kind, setKind] = useState<'temporary' | 'permanent'>('temporary');
   const [material, setMaterial] = useState<string | undefined>();
+  const [confirming, setConfirming] = useState(false);
   // Case-level events that count, as the rules core reads them.
   const restored = caseLevel.find((e): e is EventOf<'access.restored'> => e.type === 'access.restored');
   const postOp = caseLevel.some((e) => e.type === 'radiograph.taken' && e.data.purpose === 'post-op');
   const submitted = info.submitted;
   const tooth = info.setting !== 'block';
   const rec = <T extends EventType>(type: T, data: EventData<T>, label: string) => record(type, data, { label });
+  const shownCanals = canals.map((c) => ({
+    c,
+    shown: shownResult(rows, server, c.reading.result, info.caseId, c.canalId),
+  }));
+  // Submitting asks first while a canal is unfilled or a stop is open.
+  const warnings = shownCanals.flatMap(({ c, shown }) => {
+    const out: string[] = [];
+    if (shown.result && isUnfilled(shown.result.state))
+      out.push(`${canalTitle(c.name)} is unfilled (no master cone seated).`);
+    const stops = (shown.result?.findings ?? []).filter((f) => f.severity === 'stop').length;
+    if (stops > 0) out.push(`${canalTitle(c.name)} has ${stops} open stop${stops === 1 ? '' : 's'}.`);
+    return out;
+  });
 
   return (
     <div className="flex flex-col gap-4">
-      {!restored ? (
+      {!restored && !locked ? (
         <StepCard title="Restore the access" hint="Once for the tooth; it counts for every canal.">
           <ChipGroup label="Restoration">
             <Chip
@@ -72,14 +86,14 @@ export function Summary(props: { info: CaseInfo; tablet: TabletCase }) {
             </Answer>
           </Answers>
         </StepCard>
-      ) : (
+      ) : restored ? (
         <p className="text-lg">
           ✓ Access restored: {restored.data.kind}
           {restored.data.material ? `, ${restored.data.material}` : ''}
         </p>
-      )}
+      ) : null}
       {tooth &&
-        (!postOp ? (
+        (!postOp && !locked ? (
           <StepCard title="Post-operative radiograph taken?">
             <Answers>
               <Answer
@@ -90,19 +104,23 @@ export function Summary(props: { info: CaseInfo; tablet: TabletCase }) {
               </Answer>
             </Answers>
           </StepCard>
-        ) : (
+        ) : postOp ? (
           <p className="text-lg">✓ Post-operative radiograph taken</p>
-        ))}
+        ) : null)}
       <div className="grid gap-4 landscape:grid-cols-2">
-        {canals.map((c) => {
-          const shown = shownResult(rows, server, c.reading.result, info.caseId, c.canalId);
+        {shownCanals.map(({ c, shown }) => {
           return (
             <section
               key={c.canalId}
               aria-label={canalTitle(c.name)}
               className="bg-white rounded-2xl border border-line p-3"
             >
-              <h2 className="text-xl font-bold">{canalTitle(c.name)}</h2>
+              <h2 className="text-xl font-bold">
+                {canalTitle(c.name)}
+                {shown.result && isUnfilled(shown.result.state) ? (
+                  <span className="ml-2 text-base font-normal">· unfilled</span>
+                ) : null}
+              </h2>
               <div className="grid grid-cols-[minmax(0,14rem)_1fr] gap-3">
                 {shown.result && <CanalDiagram state={shown.result.state} compact />}
                 <FindingList findings={shown.result?.findings ?? []} source={shown.source} />
@@ -115,9 +133,31 @@ export function Summary(props: { info: CaseInfo; tablet: TabletCase }) {
         <p className="text-xl font-bold" data-testid="submitted">
           ✓ Submitted for review
         </p>
+      ) : confirming && warnings.length > 0 ? (
+        <StepCard
+          title="Submit with these open?"
+          hint="Your attending sees them; you can withdraw the submission until they act."
+        >
+          <ul className="list-disc pl-6 text-lg" data-testid="submit-warnings">
+            {warnings.map((w) => (
+              <li key={w}>{w}</li>
+            ))}
+          </ul>
+          <Answers>
+            <Answer tone="primary" onTap={() => void rec('case.submitted', {}, 'submitted for review')}>
+              Submit anyway
+            </Answer>
+            <Answer onTap={() => setConfirming(false)}>Not yet</Answer>
+          </Answers>
+        </StepCard>
       ) : (
         <Answers>
-          <Answer tone="primary" onTap={() => void rec('case.submitted', {}, 'submitted for review')}>
+          <Answer
+            tone="primary"
+            onTap={() =>
+              warnings.length > 0 ? setConfirming(true) : void rec('case.submitted', {}, 'submitted for review')
+            }
+          >
             Submit for review
           </Answer>
         </Answers>

@@ -15,6 +15,8 @@ export interface CaseInfo {
   chartRef?: string;
   openedAt: string;
   submitted: boolean;
+  /** A `case.discarded` stands: the case leaves the list (undoing the discard brings it back). */
+  discarded: boolean;
 }
 
 /** One canal as the cards use it: the rules core's reading plus the set-up fields they show. */
@@ -62,6 +64,7 @@ export function caseInfo(caseId: string, caseLevel: readonly LogEvent[]): CaseIn
     ...(chartRef === undefined ? {} : { chartRef }),
     openedAt: opened.at,
     submitted: caseLevel.some((e) => e.type === 'case.submitted'),
+    discarded: caseLevel.some((e) => e.type === 'case.discarded'),
   };
 }
 
@@ -76,7 +79,7 @@ export function casesOnTablet(rows: readonly StoredEvent[]): CaseInfo[] {
   }
   return [...byCase]
     .map(([caseId, events]) => caseInfo(caseId, caseTimeline(caseId, events)))
-    .filter((c): c is CaseInfo => c !== null)
+    .filter((c): c is CaseInfo => c !== null && !c.discarded)
     .sort((a, b) => Date.parse(b.openedAt) - Date.parse(a.openedAt));
 }
 

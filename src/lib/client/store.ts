@@ -273,6 +273,25 @@ export const useChairside = create<ChairsideState>((set, get) => {
     },
 
     setFinished(canalId, finished) {
+      // From contract version 2 finishing compaction is an event: it syncs, shows on another
+      // tablet and is judged there (compaction-incomplete). An older server keeps the mark here.
+      const standing = get()
+        .tablet.canals.find((c) => c.canalId === canalId)
+        ?.reading.counted.findLast((e) => e.type === 'compaction.finished' && e.canalId === canalId);
+      if (finished && !standing && serverKnows('compaction.finished', get().identity.serverContract)) {
+        // The undo strip withdraws it as any recorded step; the "just entered" panel clears.
+        set({ last: null });
+        void get().record('compaction.finished', {}, { canalId, label: 'compaction finished' });
+        return;
+      }
+      if (!finished && standing) {
+        set({ last: null });
+        void get().record(
+          'event.voided',
+          { eventId: standing.id, reason: 'Back to compaction' },
+          { canalId, label: 'Back to compaction' },
+        );
+      }
       const marks = { finished: { ...get().marks.finished, [canalId]: finished } };
       set({
         marks,

@@ -32,8 +32,10 @@ export function describeEvent(e: DescribedEvent): string {
       return data.tooth ? `Case opened: tooth ${s('tooth')}` : 'Case opened: training block';
     case 'canal.added':
       return `${canalTitle(s('name'))} set up: CWL ${mm(data.cwlMm)}, MAF ${s('mafSize')}`;
-    case 'canal.cwlCorrected':
-      return `CWL corrected to ${mm(data.cwlMm)}`;
+    case 'canal.cwlCorrected': {
+      const reason = s('reason').trim();
+      return `CWL corrected to ${mm(data.cwlMm)}${reason === '' ? ', no reason given' : `: ${reason}`}`;
+    }
     case 'seat.checked':
       return `MAF seat check: ${seatLabel(s('result'))}`;
     case 'taper.checked':
@@ -72,6 +74,12 @@ export function describeEvent(e: DescribedEvent): string {
       return `Withdrawn${why(data)}`;
     case 'case.submitted':
       return 'Submitted for review';
+    case 'compaction.finished':
+      return 'Compaction finished';
+    case 'case.discarded': {
+      const reason = s('reason').trim();
+      return `Case discarded${reason === '' ? '' : `: ${reason}`}`;
+    }
     default:
       // A type from a newer server: its words, without the label table the tablet never needs.
       return plainWords(e.type);

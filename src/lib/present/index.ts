@@ -4,3 +4,4 @@ export * from './labels';
 export * from './format';
 export * from './events';
 export * from './findings';
+export * from './review';

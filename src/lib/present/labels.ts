@@ -42,6 +42,34 @@ export const CANAL_STATUS_LABEL: Readonly<Record<CanalStatus | 'approved' | 'ret
   returned: 'returned',
   removed: 'withdrawn',
 };
+
+/** The word for a canal that has no seated master cone (it may be at any status before that, or submitted). */
+export const UNFILLED_LABEL = 'unfilled';
+
+/**
+ * Whether a canal is unfilled: no master cone was ever seated. A state stored before rules
+ * version 2 has no `unfilled`; its master cone's `seated` answers instead.
+ */
+export function isUnfilled(state: { unfilled?: boolean; masterCone: { seated: boolean } | null }): boolean {
+  return state.unfilled ?? !(state.masterCone?.seated ?? false);
+}
+
+/** A canal's status for a heading: "seared", or "submitted, unfilled" for a canal never filled. */
+export function canalStatusLine(state: {
+  status: string;
+  unfilled?: boolean;
+  masterCone: { seated: boolean } | null;
+}): string {
+  const status = canalStatusLabel(state.status);
+  if (!isUnfilled(state)) return status;
+  // Before the cone is seated the status already says how far the canal got.
+  return state.status === 'submitted' ||
+    state.status === 'restored' ||
+    state.status === 'seared' ||
+    state.status === 'filled'
+    ? `${status}, ${UNFILLED_LABEL}`
+    : `${status} (${UNFILLED_LABEL})`;
+}
 export const canalStatusLabel = (status: string): string => look(CANAL_STATUS_LABEL, status);
 
 /** What each event type records, as a reader would name it. */
@@ -67,6 +95,8 @@ export const EVENT_TYPE_LABEL: Readonly<Record<EventType, string>> = {
   'note.added': 'Note',
   'event.voided': 'Withdrawn',
   'case.submitted': 'Submitted for review',
+  'compaction.finished': 'Compaction finished',
+  'case.discarded': 'Case discarded',
 };
 export const eventTypeLabel = (type: string): string => look(EVENT_TYPE_LABEL, type);
 

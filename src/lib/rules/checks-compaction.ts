@@ -97,6 +97,15 @@ export function compactionChecks(v: CanalView): Finding[] {
   });
 
   for (const a of kept) {
+    if (gt(a.e.data.lengthMm, v.cwlMm)) {
+      out.push(
+        raise(
+          'accessory-beyond-cwl',
+          `The accessory cone was measured to ${fmtMm(a.e.data.lengthMm)}, past the CWL of ${cwl}: remove it, and tell your attending.`,
+          a.e.id,
+        ),
+      );
+    }
     if (!a.e.data.reachedLength) {
       const depth = latestBefore(spreaders, a.i)?.e.data.depthMm;
       const where = depth === undefined ? 'its length' : `the spreader depth of ${fmtMm(depth)}`;

@@ -1,10 +1,50 @@
 // Checks from the fill check to submission: compaction end, fill, sear-off, restoration.
 import { raise, type Finding } from './severities';
 import { toothGroup } from './teeth';
+import { fallbackStopDepthFor } from './thirds';
 import { fmtMm, gt, latest, latestBefore, lt, type CanalView } from './view';
 
 export function finishChecks(v: CanalView): Finding[] {
-  return [...searChecks(v), ...fillChecks(v), ...submissionChecks(v)];
+  return [...completionChecks(v), ...searChecks(v), ...fillChecks(v), ...submissionChecks(v)];
+}
+
+/**
+ * `compaction-incomplete`, judged when compaction is finished and again at sear-off: the
+ * latest sear-off's verdict replaces the finish's (one finding at most).
+ */
+function completionChecks(v: CanalView): Finding[] {
+  const sear = latest(v.of('gp.seared'));
+  const finish = latest(v.of('compaction.finished'));
+  const at = sear ?? finish;
+  if (at === undefined) return [];
+  const when = sear === undefined ? 'When compaction was finished' : 'At sear-off';
+  const last = latestBefore(v.of('spreader.placed'), at.i);
+  // On an anterior tooth the rule of thumb is scaled by the tooth's average length (thirds.ts).
+  const scaled = v.isTooth && fallbackStopDepthFor(v.tooth, v.tol.fallbackStopDepthMm) !== v.tol.fallbackStopDepthMm;
+  const estimate = v.thirds.estimated
+    ? ` (No orifice depth was recorded, so the thirds are estimated: the coronal third is taken to end at ${fmtMm(v.thirds.coronalEndMm)}, from the ${fmtMm(v.tol.fallbackStopDepthMm)} rule of thumb${scaled ? " scaled to this tooth type's average length" : ''}.)`
+    : '';
+  // No spreader placement at all: compaction never started, so it is not complete either
+  // (the checks speak only of "the last spreader depth"; this is our reading, docs/rules.md).
+  if (last === undefined) {
+    return [
+      raise(
+        'compaction-incomplete',
+        `${when} no spreader placement was recorded: tell your attending; compaction goes on until the spreader no longer passes the coronal third.${estimate}`,
+        at.e.id,
+      ),
+    ];
+  }
+  if (gt(last.e.data.depthMm, v.thirds.coronalEndMm)) {
+    return [
+      raise(
+        'compaction-incomplete',
+        `${when} the spreader still reached ${fmtMm(last.e.data.depthMm)}, past the end of the coronal third at ${fmtMm(v.thirds.coronalEndMm)}: tell your attending; place more cones until the spreader no longer passes the coronal third.${estimate}`,
+        at.e.id,
+      ),
+    ];
+  }
+  return [];
 }
 
 function searChecks(v: CanalView): Finding[] {
@@ -12,29 +52,6 @@ function searChecks(v: CanalView): Finding[] {
   if (sear === undefined) return [];
   const out: Finding[] = [];
   const kept = v.of('accessory.placed').filter((a) => !v.withdrawn.has(a.e.id));
-  const last = latestBefore(v.of('spreader.placed'), sear.i);
-  const estimate = v.thirds.estimated
-    ? ` (No orifice depth was recorded, so the thirds are estimated: the coronal third is taken to end at ${fmtMm(v.thirds.coronalEndMm)}, from the ${fmtMm(v.tol.fallbackStopDepthMm)} rule of thumb.)`
-    : '';
-  // No spreader placement at all: compaction never started, so it is not complete either
-  // (the checks speak only of "the last spreader depth"; this is our reading, docs/rules.md).
-  if (last === undefined) {
-    out.push(
-      raise(
-        'compaction-incomplete',
-        `Sear-off is recorded with no spreader placement before it: tell your attending; compaction goes on until the spreader no longer passes the coronal third.${estimate}`,
-        sear.e.id,
-      ),
-    );
-  } else if (gt(last.e.data.depthMm, v.thirds.coronalEndMm)) {
-    out.push(
-      raise(
-        'compaction-incomplete',
-        `At sear-off the spreader still reached ${fmtMm(last.e.data.depthMm)}, past the end of the coronal third at ${fmtMm(v.thirds.coronalEndMm)}: tell your attending; place more cones until the spreader no longer passes the coronal third.${estimate}`,
-        sear.e.id,
-      ),
-    );
-  }
   if (!v.isTooth) return out;
   const remaining = kept.filter((a) => a.i < sear.i).length;
   if (remaining < v.tol.minAccessoryCones) {
@@ -60,6 +77,15 @@ function searChecks(v: CanalView): Finding[] {
     );
   }
   const cej = sear.e.data.relativeToCejMm;
+  if (cej === undefined && v.tooth !== undefined && toothGroup(v.tooth).anterior) {
+    out.push(
+      raise(
+        'sear-level-missing',
+        'The sear-off records no level against the CEJ: in an anterior tooth sealer left above it can stain the crown; record the level, or tell your attending.',
+        sear.e.id,
+      ),
+    );
+  }
   if (cej !== undefined && lt(cej, 0) && v.tooth !== undefined) {
     const anterior = toothGroup(v.tooth).anterior;
     out.push(

@@ -10,17 +10,30 @@ export function setupChecks(v: CanalView): Finding[] {
 }
 
 function cwlChecks(v: CanalView): Finding[] {
-  if (!v.isTooth || v.tooth === undefined) return [];
+  const out: Finding[] = [];
+  // Only the correction in use is judged: a later correction with a reason replaces it.
+  const correction = latest(v.of('canal.cwlCorrected'));
+  if (correction !== undefined && correction.e.data.reason === '') {
+    out.push(
+      raise(
+        'cwl-corrected-without-reason',
+        `The CWL was corrected to ${fmtMm(correction.e.data.cwlMm)} with no reason: add a note saying why (a new radiograph, an apex-locator reading, lost length) so your attending can follow the change.`,
+        correction.e.id,
+      ),
+    );
+  }
+  if (!v.isTooth || v.tooth === undefined) return out;
   const avg = averageLengthMm(v.tooth);
-  if (avg === null || !beyondMargin(v.cwlMm, avg, v.tol.cwlUnusualMarginMm)) return [];
+  if (avg === null || !beyondMargin(v.cwlMm, avg, v.tol.cwlUnusualMarginMm)) return out;
   const side = v.cwlMm > avg ? 'longer' : 'shorter';
-  return [
+  out.push(
     raise(
       'cwl-unusual-for-tooth',
       `The CWL of ${fmtMm(v.cwlMm)} is ${fmtMm(Math.abs(v.cwlMm - avg))} ${side} than an average ${toothName(v.tooth)} (${fmtMm(avg)}): check the length and the reference point; an unusual tooth can be right.`,
       v.cwlEventId,
     ),
-  ];
+  );
+  return out;
 }
 
 function seatChecks(v: CanalView): Finding[] {
@@ -30,17 +43,19 @@ function seatChecks(v: CanalView): Finding[] {
   // The latest seat and taper checks before the (latest) seating count; before any seating,
   // the latest taper check is judged at once so the tablet can answer straight away.
   const taper = latestBefore(v.of('taper.checked'), seat?.i);
-  if (seat !== undefined) {
-    const check = latestBefore(v.of('seat.checked'), seat.i);
-    if (check === undefined) {
-      out.push(
-        raise(
-          'seat-not-confirmed',
-          'You seated the master cone with no seat check of the MAF before it: check that the MAF seats at the CWL and holds, and ask your attending before going on.',
-          seat.e.id,
-        ),
-      );
-    } else if (differs(check.e.data.lengthMm, v.cwlMm)) {
+  // The same for the seat check: judged at the tap, cleared by a later passing check.
+  const check = latestBefore(v.of('seat.checked'), seat?.i);
+  if (seat !== undefined && check === undefined) {
+    out.push(
+      raise(
+        'seat-not-confirmed',
+        'You seated the master cone with no seat check of the MAF before it: check that the MAF seats at the CWL and holds, and ask your attending before going on.',
+        seat.e.id,
+      ),
+    );
+  }
+  if (check !== undefined) {
+    if (differs(check.e.data.lengthMm, v.cwlMm)) {
       out.push(
         raise(
           'seat-not-confirmed',
@@ -65,6 +80,17 @@ function seatChecks(v: CanalView): Finding[] {
         ),
       );
     }
+    if (check.e.data.fileSize !== v.canalAdded.data.mafSize) {
+      out.push(
+        raise(
+          'seat-file-not-maf',
+          `The seat was checked with a size ${check.e.data.fileSize} file, but the MAF is ${v.canalAdded.data.mafSize}: check the seat with the MAF itself.`,
+          check.e.id,
+        ),
+      );
+    }
+  }
+  if (seat !== undefined) {
     if (taper === undefined) {
       out.push(
         raise(
@@ -84,6 +110,15 @@ function seatChecks(v: CanalView): Finding[] {
         ),
       );
     }
+  }
+  if (taper !== undefined && gt(taper.e.data.depthMm, v.cwlMm)) {
+    out.push(
+      raise(
+        'taper-beyond-cwl',
+        `The taper-check spreader went to ${fmtMm(taper.e.data.depthMm)}, past the CWL of ${cwl}: the apical stop may be lost; check the seat of the MAF again and ask your attending before filling.`,
+        taper.e.id,
+      ),
+    );
   }
   if (taper !== undefined && gt(v.cwlMm - taper.e.data.depthMm, v.tol.taperShortMarginMm)) {
     out.push(
@@ -155,11 +190,19 @@ function masterConeChecks(v: CanalView): Finding[] {
           fit.e.id,
         ),
       );
-    } else if (beyondMargin(lengthMm, v.cwlMm, v.tol.masterLengthMarginMm)) {
+    } else if (gt(lengthMm, v.cwlMm)) {
+      out.push(
+        raise(
+          'master-beyond-cwl',
+          `The master cone was fitted at ${fmtMm(lengthMm)}, ${fmtMm(lengthMm - v.cwlMm)} past the CWL of ${fmtMm(v.cwlMm)}: cut it or choose another cone so it stops at the CWL, and ask your attending before seating.`,
+          fit.e.id,
+        ),
+      );
+    } else if (gt(v.cwlMm - lengthMm, v.tol.masterLengthMarginMm)) {
       out.push(
         raise(
           'master-length-mismatch',
-          `The master cone was fitted at ${fmtMm(lengthMm)}, ${fmtMm(Math.abs(lengthMm - v.cwlMm))} from the CWL of ${fmtMm(v.cwlMm)}: fit it to the CWL before seating.`,
+          `The master cone was fitted at ${fmtMm(lengthMm)}, ${fmtMm(v.cwlMm - lengthMm)} short of the CWL of ${fmtMm(v.cwlMm)}: fit it to the CWL before seating.`,
           fit.e.id,
         ),
       );
@@ -182,7 +225,15 @@ function masterConeChecks(v: CanalView): Finding[] {
   const shown = shot === undefined ? undefined : latestBefore(fits, shot.i);
   // The cone in place now (the latest refit after the radiograph) is compared with the one it showed.
   const refit = shot === undefined ? undefined : latest(fits.filter((x) => x.i > shot.i));
-  if (
+  if (shown !== undefined && refit !== undefined && refit.e.data.size !== shown.e.data.size) {
+    out.push(
+      raise(
+        'cone-fit-retake-needed',
+        `The master cone was changed to size ${refit.e.data.size} after the cone-fit radiograph showed size ${shown.e.data.size}: take a new cone-fit radiograph.`,
+        refit.e.id,
+      ),
+    );
+  } else if (
     shown !== undefined &&
     refit !== undefined &&
     atLeast(refit.e.data.lengthMm, shown.e.data.lengthMm, v.tol.coneFitRetakeThresholdMm)

@@ -19,6 +19,7 @@ export { LIMITS, LIMIT_MESSAGES, CaseTally, tallyOf, tallyEvent } from './limits
 export type { CaseLimit, LimitBreach, TallyEvent } from './limits';
 export {
   DEFAULT_TOLERANCES,
+  TOLERANCE_LABELS,
   TOLERANCE_SOURCES,
   TOLERANCE_RANGES,
   resolveTolerances,
@@ -35,16 +36,35 @@ export {
   isRefusal,
   isCaseState,
   isLocked,
+  finalApprovalRefusal,
 } from './lifecycle';
-export type { CaseState, CaseAction, Refusal as LifecycleRefusal } from './lifecycle';
+export type { CaseState, CaseAction, Refusal as LifecycleRefusal, ApprovalBlockers } from './lifecycle';
 export type { Tolerances } from './tolerances';
+export { SIGNOFF_CHECKPOINTS, SIGNOFF_DECISIONS, RATING_KEYS, RATING_LEVELS } from './review';
+export type {
+  SignoffCheckpoint,
+  SignoffDecision,
+  SignoffOutcome,
+  RatingKey,
+  RatingLevel,
+  CanalRatings,
+} from './review';
+export { SOURCE_LABELS, LABEL_MEANINGS } from './labels';
+export type { SourceLabel, Sourced, LabelledValue } from './labels';
+export { referenceValues } from './reference-values';
 export { FINDINGS, FINDING_CODES, SAFETY_LINE } from './findings';
 export type { Severity, FindingCode, Finding, FindingInfo } from './findings';
 export { evaluateCanal, readCanal } from './evaluate';
 export type { CanalResult, CanalReading } from './evaluate';
 export { caseTimeline, compareEvents } from './timeline';
 export type { CanalState, CanalStatus } from './state';
-export { canalThirds, isCompactionComplete } from './thirds';
+export {
+  canalThirds,
+  isCompactionComplete,
+  fallbackStopDepthFor,
+  STOP_DEPTH_REFERENCE_LENGTH_MM,
+  STOP_DEPTH_SCALING_SOURCE,
+} from './thirds';
 export type { CanalThirds } from './thirds';
 export {
   ISO_SIZES,
@@ -59,12 +79,31 @@ export {
 export type { IsoColourName } from './sizes';
 export { isValidFdi, fdiToUniversal, universalToFdi, toothGroup, toothName } from './teeth';
 export type { ToothGroup, ToothKind } from './teeth';
-export { usualCanals, referencePointsFor, averageLengthMm, SINGLE_CANAL } from './anatomy';
+export {
+  usualCanals,
+  pickCanal,
+  referencePointsFor,
+  averageLengthMm,
+  SINGLE_CANAL,
+  SECOND_CANAL_PAIR,
+  AVERAGE_LENGTHS,
+} from './anatomy';
+export type { AverageLength } from './anatomy';
 export {
   workingLengthByDiscrepancy,
   workingLengthFromApexLocator,
   proportionalLength,
+  workingLengthByProportion,
+  resorptionAllowanceMm,
+  RESORPTIONS,
   stepBackSchedule,
   roundToHalf,
   roundToHundredth,
+  floorToHalf,
+  APEX_LOCATOR_BACK_OFF_MM,
+  ISO_CUTTING_LENGTH_MM,
+  isoSizeRow,
 } from './calculators';
+export type { Resorption, IsoSizeRow } from './calculators';
+export { CALCULATOR_VALUES, ROUNDING_VALUE, calculatorSources } from './calculator-sources';
+export type { CalculatorId } from './calculator-sources';

@@ -26,6 +26,9 @@ export const EVENT_TYPES = [
   'note.added',
   'event.voided',
   'case.submitted',
+  // Contract version 2 (docs/sync-contract.md): appended, never reordered.
+  'compaction.finished',
+  'case.discarded',
 ] as const;
 export type EventType = (typeof EVENT_TYPES)[number];
 
@@ -98,10 +101,16 @@ export const DATA = {
   'note.added': { text: f.text('text', TEXT_MAX) },
   'event.voided': { eventId: f.uuid('eventId'), reason: f.textMayBeEmpty('reason', TEXT_MAX) },
   'case.submitted': {},
+  'compaction.finished': {},
+  'case.discarded': { reason: f.text('reason', TEXT_MAX) },
 } satisfies Record<EventType, Shape>;
 
 /** Events that must carry no canalId. */
-export const CASE_LEVEL_ONLY: ReadonlySet<EventType> = new Set<EventType>(['case.opened', 'case.submitted']);
+export const CASE_LEVEL_ONLY: ReadonlySet<EventType> = new Set<EventType>([
+  'case.opened',
+  'case.submitted',
+  'case.discarded',
+]);
 /**
  * Events that may be case-level or name a canal. `event.voided` is among them although the
  * issue's list leaves it out: without it a case-level `access.restored` or post-op radiograph

@@ -27,25 +27,42 @@ const CATALOGUE: Record<FindingCode, Omit<FindingInfo, 'severity'>> = {
     raisedWhen:
       "Tooth: the CWL differs from the average length of that tooth type (a range's midpoint) by more than the margin; no note where the table has no value for the tooth.",
     source:
-      "Grossman's Endodontic Practice 2020, table 13.2 (seen); textbooks and PMC4195450 (seen, sources differ); molars about 20–22 mm (memory).",
+      "Average lengths, each with its source in references.md: Grossman's Endodontic Practice 2020, table 13.2 (seen) for the maxillary incisors, canine and first premolar; PMC4195450 (seen) for the mandibular first premolar; Wheeler's Dental Anatomy, Physiology and Occlusion (memory: crown + root length) for the mandibular canine and the second premolars; the team's knowledge (memory) for the mandibular incisors and the molars.",
+  },
+  'cwl-corrected-without-reason': {
+    title: 'CWL corrected with no reason',
+    raisedWhen: 'The CWL in use was set by a correction recorded with an empty reason.',
+    source: `${PRACTICE}: a change of working length is explained on the record (a new radiograph, an apex-locator reading, lost length).`,
   },
   'seat-not-confirmed': {
     title: 'MAF seat not confirmed',
     raisedWhen:
-      'The master cone is seated but the latest seat check before it is missing, was not at the CWL, or the MAF moved apically or did not reach.',
+      'At the tap: the latest seat check (the latest before the master cone was seated, once it is) was not at the CWL, or the MAF advanced past it or did not reach; a later passing check clears it. Also when the master cone is seated with no seat check before it.',
     source: `${PRACTICE}: the MAF seats at the CWL and does not advance under light apical pressure.`,
+  },
+  'seat-file-not-maf': {
+    title: 'Seat checked with another file size',
+    raisedWhen:
+      "The seat check judged for the canal (the latest before the master cone was seated, or the latest of all before seating) used a file whose size is not the MAF's.",
+    source: `${PRACTICE}: the seat of the apical preparation is checked with the MAF itself.`,
   },
   'taper-not-checked': {
     title: 'Taper not checked',
     raisedWhen: 'The master cone is seated with no taper check recorded before it.',
-    source: `${PRACTICE}: the spreader reaches within 1 mm of the CWL before obturation; agrees with Allison, Weber & Walton, J Endod 1979 (seen).`,
+    source: `${PRACTICE}: the spreader reaches within 1 mm of the CWL before obturation; agrees with Allison, Weber & Walton, J Endod 1979 (seen) for step-back preparations.`,
   },
   'taper-short': {
     title: 'Taper check short',
     tolerance: 'taperShortMarginMm',
     raisedWhen:
       'The taper-check spreader (the latest check before the master cone was seated) stopped more than the margin short of the CWL.',
-    source: `${PRACTICE}; Allison, Weber & Walton, J Endod 1979 (seen).`,
+    source: `${PRACTICE}; Allison, Weber & Walton, J Endod 1979 (seen): within 1 mm in step-back preparations, 2 mm or less in standardised ones; the default takes the stricter 1 mm.`,
+  },
+  'taper-beyond-cwl': {
+    title: 'Taper check past the CWL',
+    raisedWhen:
+      'The taper-check spreader judged for the canal (the latest before seating, or the latest of all before seating) went deeper than the CWL, at the tap.',
+    source: `${PRACTICE}: a spreader that passes the CWL at the taper check suggests the apical stop may be lost; the seat is checked again.`,
   },
   'maf-radiograph-missing': {
     title: 'MAF radiograph missing',
@@ -67,14 +84,20 @@ const CATALOGUE: Record<FindingCode, Omit<FindingInfo, 'severity'>> = {
   'master-size-mismatch': {
     title: 'Master cone size differs from the MAF',
     raisedWhen: "The master cone's size (the latest fit) differs from the MAF's.",
-    source: `${PRACTICE}: same ISO size as the MAF (one source uses a size larger: a disagreement).`,
+    source: `${PRACTICE}: same ISO size as the MAF (some teaching fits a size larger: practice, no published source named; a disagreement).`,
   },
   'master-length-mismatch': {
     title: 'Master cone not at length',
     tolerance: 'masterLengthMarginMm',
     raisedWhen:
-      'The fitted master cone (the latest fit) did not reach, or its length differs from the CWL by more than the margin.',
-    source: `${PRACTICE}: the master cone goes to the full CWL (one source seats it 0.5 mm short: a disagreement).`,
+      'The fitted master cone (the latest fit) did not reach, or was measured shorter than the CWL by more than the margin (a cone past the CWL raises `master-beyond-cwl`).',
+    source: `${PRACTICE}: the master cone goes to the full CWL (some teaching fits it 0.5 mm short: practice, no published source named; a disagreement).`,
+  },
+  'master-beyond-cwl': {
+    title: 'Master cone past the CWL',
+    raisedWhen:
+      'The fitted master cone (the latest fit) was measured to a length greater than the CWL, by any amount, at the tap. A cone short of the CWL by more than the margin stays `master-length-mismatch`.',
+    source: `${PRACTICE}: the master cone never goes past the CWL; a cone past it risks extruding gutta-percha and sealer.`,
   },
   'cone-fit-radiograph-missing': {
     title: 'Cone-fit radiograph missing',
@@ -86,7 +109,7 @@ const CATALOGUE: Record<FindingCode, Omit<FindingInfo, 'severity'>> = {
     title: 'Cone-fit radiograph to retake',
     tolerance: 'coneFitRetakeThresholdMm',
     raisedWhen:
-      'Tooth: after the last cone-fit radiograph the cone was refitted at a length differing by at least the threshold from the fit that radiograph showed, and no newer cone-fit radiograph followed.',
+      'Tooth: after the last cone-fit radiograph the cone was refitted at a length differing by at least the threshold from the fit that radiograph showed, or with a cone of another size, and no newer cone-fit radiograph followed.',
     source: `${PRACTICE}: retake the cone-fit radiograph when the cone is changed by 1 mm or more.`,
   },
   'compaction-before-seat': {
@@ -104,7 +127,7 @@ const CATALOGUE: Record<FindingCode, Omit<FindingInfo, 'severity'>> = {
     tolerance: 'firstSpreaderMarginMm',
     raisedWhen:
       'The first spreader placement after the master cone was seated stopped more than the margin short of the CWL.',
-    source: `${PRACTICE}: the first placement reaches within 2 mm of the CWL; Allison, Weber & Walton, J Endod 1979 (seen).`,
+    source: `${PRACTICE}: the first placement reaches within 2 mm of the CWL. Allison, Weber & Walton, J Endod 1979 (seen) support 2 mm only in standardised preparations (1 mm in step-back ones); the default takes 2 mm for every preparation.`,
   },
   'accessory-without-spreader': {
     title: 'Accessory cone without a spreader placement',
@@ -125,6 +148,12 @@ const CATALOGUE: Record<FindingCode, Omit<FindingInfo, 'severity'>> = {
       'An accessory cone was recorded as not reaching its length and has not been withdrawn (a likely void); withdrawing it clears the finding. Its measured length alone never raises this.',
     source: `${PRACTICE}: a cone that stops short of the spreader's depth leaves a void and is replaced.`,
   },
+  'accessory-beyond-cwl': {
+    title: 'Accessory cone past the CWL',
+    raisedWhen:
+      'A kept accessory cone was measured to a length greater than the CWL, at the tap; withdrawing it clears the finding.',
+    source: `${PRACTICE}: no cone or instrument goes past the CWL, as for the spreader.`,
+  },
   'accessory-size-mismatch': {
     title: 'Accessory cone size differs from the spreader',
     raisedWhen: "A kept accessory cone's size differs from the size of the spreader in the latest placement before it.",
@@ -134,7 +163,7 @@ const CATALOGUE: Record<FindingCode, Omit<FindingInfo, 'severity'>> = {
     title: 'Compaction incomplete',
     tolerance: 'fallbackStopDepthMm',
     raisedWhen:
-      'At sear-off the last spreader depth still lies beyond the coronal third (or no spreader placement was recorded). Where no orifice depth was recorded the thirds are estimated from the fallback stop depth.',
+      'When compaction is finished (`compaction.finished`) and again at sear-off, the last spreader depth before it still lies beyond the coronal third (or no spreader placement was recorded); the verdict at sear-off replaces the one at the finish. Where no orifice depth was recorded the thirds are estimated from the fallback stop depth.',
     source: `${PRACTICE}: stop when the spreader no longer passes the coronal third, about 10–12 mm from a cusp reference in most teeth.`,
   },
   'few-accessory-cones': {
@@ -172,6 +201,12 @@ const CATALOGUE: Record<FindingCode, Omit<FindingInfo, 'severity'>> = {
     raisedWhen:
       'Tooth: the sear level (the latest sear-off) is above the CEJ; in an anterior tooth (FDI x1–x3) the message warns of crown staining.',
     source: `${PRACTICE}: sear at the orifice, or at or up to 1 mm below the CEJ; in anterior teeth at or below it so sealer cannot stain the crown.`,
+  },
+  'sear-level-missing': {
+    title: 'Sear level not recorded',
+    raisedWhen:
+      'Tooth, anterior teeth only (FDI x1–x3): the latest sear-off records no level against the CEJ, so a level that could stain the crown cannot be judged.',
+    source: `${PRACTICE}: in anterior teeth the gutta-percha is seared at or below the CEJ, so its level is recorded.`,
   },
   'restoration-missing': {
     title: 'Access not restored',

@@ -1,7 +1,18 @@
 // Instrument and cone sizes: ISO 3630-1 (files, spreaders) and ISO 6877 (gutta-percha points).
-// Values and labels as in docs/references.md.
+// Values and labels as in docs/references.md; the standards themselves were not read here, so
+// the values are memory unless said otherwise.
+import type { Sourced } from './labels';
 
-/** ISO sizes as written: 06, 08, 10, 15–60 by 5, 70–140 by 10 (ISO 3630-1 as summarised — partly). */
+/** The source and label of each size table below (docs/references.md, "Values in the code"). */
+export const SIZE_SOURCES = {
+  isoSizes: { source: 'ISO 3630-1', label: 'memory' },
+  tipDiameter: { source: 'ISO 3630-1; ANSI/ADA Specification No. 28', label: 'memory' },
+  standardTaper: { source: 'ANSI/ADA Specification No. 28', label: 'memory' },
+  colours: { source: 'ISO 3630-1', label: 'memory' },
+  nonStandard: { source: 'ISO 6877', label: 'memory' },
+} as const satisfies Record<string, Sourced>;
+
+/** ISO sizes as written: 06, 08, 10, 15–60 by 5, 70–140 by 10 (ISO 3630-1 — memory). */
 export const ISO_SIZES: readonly string[] = Object.freeze([
   '06',
   '08',
@@ -10,7 +21,10 @@ export const ISO_SIZES: readonly string[] = Object.freeze([
   ...range(70, 140, 10).map(String),
 ]);
 
-/** Non-standardised accessory cone and spreader designations (dental-education text — seen, weak). */
+/**
+ * Non-standardised accessory cone and spreader designations, set by ISO 6877 (memory). Their
+ * tapers vary by maker (team's knowledge — memory); the rules compare designations only.
+ */
 export const NON_STANDARD_SIZES: readonly string[] = Object.freeze(['XF', 'FF', 'MF', 'F', 'FM', 'M', 'ML', 'L', 'XL']);
 
 /** Human-readable list used in messages. */
@@ -70,8 +84,8 @@ const COLOURS: Record<IsoColourName, { hex: string; textHex: string }> = {
   black: { hex: '#000000', textHex: '#FFFFFF' },
 };
 
-// From 15: white, yellow, red, blue, green, black, repeating for 45–80 and 90–140
-// (ISO 3630-1 as summarised — partly, 15–40 seen). 06 pink, 08 grey, 10 purple (memory).
+// From 15: white, yellow, red, blue, green, black, repeating for 45–80 and 90–140;
+// 06 pink, 08 grey, 10 purple (ISO 3630-1 — memory).
 const CYCLE: readonly IsoColourName[] = ['white', 'yellow', 'red', 'blue', 'green', 'black'];
 
 /** The ISO colour code of a size; null for designations and anything that is not an ISO size. */
@@ -88,13 +102,17 @@ export function isoColour(size: string): { name: IsoColourName; hex: string; tex
   return { name, ...COLOURS[name] };
 }
 
-/** Tip diameter D0 in mm: the ISO size in hundredths of a millimetre (size 30 → 0.30 mm). NaN for a designation. */
+/**
+ * Tip diameter D0 in mm: the ISO size in hundredths of a millimetre (size 30 → 0.30 mm;
+ * ISO 3630-1, ANSI/ADA Specification No. 28 — memory). NaN for a designation.
+ */
 export function tipDiameterMm(size: string): number {
   return isIsoSize(size) ? Number(size) / 100 : Number.NaN;
 }
 
 /**
- * Diameter at a distance from the tip for a given taper (default the standard 0.02 mm/mm):
+ * Diameter at a distance from the tip for a given taper (default the standard 0.02 mm/mm,
+ * ANSI/ADA Specification No. 28 — memory):
  * D = D0 + taper × distance, e.g. size 30 at 16 mm → 0.62 mm. NaN for a designation or a
  * distance or taper that is negative or not finite. Rounded to 0.001 mm to drop float noise.
  */

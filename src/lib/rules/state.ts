@@ -43,6 +43,10 @@ export interface CanalState {
   taperCheckDepthMm?: number;
   thirds: CanalThirds;
   complete: boolean;
+  /** A `compaction.finished` stands (recorded by tablets from contract version 2). */
+  compactionFinished: boolean;
+  /** No master cone was ever seated in this canal: it is not filled, whatever its status. */
+  unfilled: boolean;
   searLevel?: { atOrifice: boolean; relativeToCejMm?: number };
   /** Event ids of `radiograph.taken` by purpose (the event holds the radiographId once uploaded). */
   radiographs: Record<RadiographPurpose, string[]>;
@@ -73,6 +77,7 @@ const STATUS_OF: Partial<Record<EventType, CanalStatus>> = {
   'master.fitted': 'cone-fitted',
   'master.seated': 'compacting',
   'spreader.placed': 'compacting',
+  'compaction.finished': 'compacting',
   'accessory.placed': 'compacting',
   'accessory.removed': 'compacting',
   'fill.assessed': 'filled',
@@ -92,7 +97,11 @@ const RADIOGRAPH_STATUS: Record<RadiographPurpose, CanalStatus | undefined> = {
 
 function statusOf(v: CanalView): CanalStatus {
   let rank = 0;
+  let seared = false;
   for (const e of v.events) {
+    if (e.type === 'gp.seared') seared = true;
+    // A case-level restoration restores only the canals already seared when it was recorded.
+    if (e.type === 'access.restored' && e.canalId === undefined && !seared) continue;
     const s = e.type === 'radiograph.taken' ? RADIOGRAPH_STATUS[e.data.purpose] : STATUS_OF[e.type];
     if (s !== undefined) rank = Math.max(rank, STATUS_ORDER.indexOf(s));
   }
@@ -154,6 +163,8 @@ export function deriveState(v: CanalView): CanalState {
     spreaderDepths,
     thirds: v.thirds,
     complete: isCompactionComplete(latest(spreaderDepths), v.thirds),
+    compactionFinished: v.of('compaction.finished').length > 0,
+    unfilled: v.firstSeat === undefined,
     radiographs,
     durationMs: first !== undefined && last !== undefined ? instant(last) - instant(first) : 0,
     eventCount: v.events.length,

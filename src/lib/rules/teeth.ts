@@ -1,5 +1,13 @@
 // Tooth numbers: FDI two-digit notation (ISO 3950 — seen) and the Universal system
 // (pairs as listed in the HL7 FHIR tooth value sets — seen).
+import { TEAM_KNOWLEDGE, type Sourced } from './labels';
+
+/** Where each numbering comes from (docs/references.md, "Values in the code"). */
+export const TOOTH_NUMBER_SOURCES = {
+  fdi: { source: 'ISO 3950, as documented publicly', label: 'seen' },
+  universal: { source: 'HL7 FHIR tooth value sets list the pairs; the formula matches them', label: 'seen' },
+  universalPrimary: { source: TEAM_KNOWLEDGE, label: 'memory' },
+} as const satisfies Record<string, Sourced>;
 
 /** True for an FDI number that exists: permanent 11–48 (quadrants 1–4, teeth 1–8), primary 51–85 (quadrants 5–8, teeth 1–5). */
 export function isValidFdi(n: number): boolean {

@@ -1,5 +1,33 @@
 // Canal thirds and when lateral compaction is complete (docs/rules.md, "Canal thirds").
+import { averageLengthMm } from './anatomy';
+import { CONELINE, type Sourced } from './labels';
+import { isValidFdi, toothGroup } from './teeth';
 import { DEFAULT_TOLERANCES } from './tolerances';
+
+/**
+ * The tooth length the fallback stop depth's 10–12 mm rule of thumb is taken to be made for:
+ * 21 mm, the middle of the 20–22.5 mm most tooth types in the average table fall within
+ * (molars 21, premolars 22.25–22.5, mandibular incisors 20.7–21.1) — the "most teeth" the
+ * rule speaks of — and the average the table gives the molars, where the rule is chiefly
+ * taught, so a molar's estimate is unchanged. Our judgement.
+ */
+export const STOP_DEPTH_REFERENCE_LENGTH_MM = 21;
+export const STOP_DEPTH_SCALING_SOURCE: Sourced = { source: CONELINE, label: 'judgement' };
+
+/**
+ * The fallback stop depth for a tooth: s itself, except for a permanent anterior tooth
+ * (FDI x1–x3) with an average length A, where it is s × A / 21 (judgement: a long canine's
+ * coronal third ends deeper than a short incisor's). Example: s = 12 on a maxillary canine
+ * (27 mm) → 15.43 mm; on a mandibular central incisor (20.7 mm) → 11.83 mm.
+ */
+export function fallbackStopDepthFor(tooth: number | undefined, s: number): number {
+  if (tooth === undefined || !isValidFdi(tooth) || !toothGroup(tooth).anterior) return s;
+  const avg = averageLengthMm(tooth);
+  return avg === null ? s : (s * avg) / STOP_DEPTH_REFERENCE_LENGTH_MM;
+}
+
+/** Estimating the orifice from the fallback stop depth, o = (3s − CWL) / 2, is our judgement. */
+export const ORIFICE_ESTIMATE_SOURCE: Sourced = { source: CONELINE, label: 'judgement' };
 
 export interface CanalThirds {
   /** Orifice depth o from the reference point. */
@@ -15,7 +43,8 @@ export interface CanalThirds {
 
 /**
  * The thirds of a canal from its orifice to the CWL. With no recorded orifice depth, o is
- * estimated so that the coronal third ends at the fallback stop depth s:
+ * estimated so that the coronal third ends at the fallback stop depth s for the tooth
+ * (`fallbackStopDepthFor`: on an anterior tooth s × average length / 21, judgement):
  * o = (3s − CWL) / 2, kept within [0, CWL / 2] — for a CWL of 21 mm and s = 12, o = 7.5 mm.
  * A recorded depth is kept within [0, CWL] (a CWL corrected to above the orifice leaves no
  * canal to divide; the thirds then collapse onto the CWL rather than run backwards).
@@ -24,9 +53,11 @@ export function canalThirds(
   cwlMm: number,
   orificeDepthMm: number | undefined,
   fallbackStopDepthMm: number = DEFAULT_TOLERANCES.fallbackStopDepthMm,
+  tooth?: number,
 ): CanalThirds {
   const cwl = Number.isFinite(cwlMm) && cwlMm > 0 ? cwlMm : 0;
-  const s = Number.isFinite(fallbackStopDepthMm) ? fallbackStopDepthMm : DEFAULT_TOLERANCES.fallbackStopDepthMm;
+  const s0 = Number.isFinite(fallbackStopDepthMm) ? fallbackStopDepthMm : DEFAULT_TOLERANCES.fallbackStopDepthMm;
+  const s = fallbackStopDepthFor(tooth, s0);
   const estimated = orificeDepthMm === undefined || !Number.isFinite(orificeDepthMm);
   const o = estimated ? clamp((3 * s - cwl) / 2, 0, cwl / 2) : clamp(orificeDepthMm, 0, cwl);
   const l = cwl - o;

@@ -1,5 +1,6 @@
 // Tolerances a course director may change. Defaults are the trade's usual values; the
 // source of each (labels from docs/references.md) and any disagreement is written beside it.
+import { CONELINE, TRADE_TEACHING, type Sourced } from './labels';
 
 export interface Tolerances {
   cwlUnusualMarginMm: number;
@@ -13,37 +14,70 @@ export interface Tolerances {
   fillShortLimitMm: number;
 }
 
-/** Where each default comes from, shown on the reference page. */
-export const TOLERANCE_SOURCES: Record<keyof Tolerances, string> = {
-  cwlUnusualMarginMm:
-    'Judgement: tooth lengths serve only as a soft note with wide bounds; the published averages differ by up to 2 mm between sources (mandibular central incisor 20.7 or 21.5 mm, lateral up to 23 mm).',
-  taperShortMarginMm:
-    'Trade teaching (practice): the spreader reaches within 1 mm of the CWL; agrees with Allison, Weber & Walton, J Endod 1979 (seen) for step-back preparations, which found 2 mm or less enough in standardised ones: a disagreement, the stricter value is the default.',
-  masterLengthMarginMm:
-    'Trade teaching (practice): the master cone goes to the full CWL. One source seats it 0.5 mm short and a size larger: a disagreement; a 0.5 mm margin (one ruler step) accepts that practice.',
-  coneFitRetakeThresholdMm:
-    'Trade teaching (practice): retake the cone-fit radiograph when the cone is changed by 1 mm or more.',
-  firstSpreaderMarginMm: 'Trade teaching (practice): the first spreader placement reaches within 2 mm of the CWL.',
-  accessoryLengthMarginMm:
-    'Trade teaching (practice): each accessory cone is measured to the depth the spreader reached; the 0.5 mm margin is one ruler step (our judgement).',
-  minAccessoryCones:
-    'Trade teaching (practice): usually 4–5 accessory cones in an average canal, more in wide ones; 3 is the floor below which a note is shown, as narrow canals take fewer (our judgement).',
-  fallbackStopDepthMm:
-    'Trade teaching (practice): stop when the spreader no longer passes the coronal third, about 10–12 mm from a cusp reference in most teeth; the upper end is the default.',
-  fillShortLimitMm:
-    "European Society of Endodontology quality guidelines, Int Endod J 2006 (seen, secondary); Jurič et al., Int Endod J 2024 (seen): a fill more than 2 mm short of the radiographic apex is under-filled. The contract's fill categories are drawn at this limit.",
+/**
+ * Where each default comes from and how sure we are of it (docs/references.md, "Values in the
+ * code"; tests/lib/rules/reference-labels.test.ts holds the two together).
+ */
+export const TOLERANCE_LABELS: Readonly<Record<keyof Tolerances, Sourced>> = {
+  cwlUnusualMarginMm: { source: CONELINE, label: 'judgement' },
+  taperShortMarginMm: { source: TRADE_TEACHING, label: 'practice' },
+  masterLengthMarginMm: { source: TRADE_TEACHING, label: 'practice' },
+  coneFitRetakeThresholdMm: { source: TRADE_TEACHING, label: 'practice' },
+  firstSpreaderMarginMm: { source: TRADE_TEACHING, label: 'practice' },
+  accessoryLengthMarginMm: { source: CONELINE, label: 'judgement' },
+  minAccessoryCones: { source: CONELINE, label: 'judgement' },
+  fallbackStopDepthMm: { source: TRADE_TEACHING, label: 'practice' },
+  fillShortLimitMm: {
+    source:
+      'Jurič et al., Int Endod J 2024; European Society of Endodontology quality guidelines, Int Endod J 2006;39:921–930',
+    label: 'seen',
+  },
 };
 
+const ALLISON = 'Allison, Weber & Walton, J Endod 1979;5(10):298–304 (seen)';
+
+// What each default means and where sources disagree, after its source and label.
+const NOTES: Readonly<Record<keyof Tolerances, string>> = {
+  cwlUnusualMarginMm:
+    'tooth lengths serve only as a soft note with wide bounds; the averages differ by up to 2 mm between texts (mandibular central incisor 20.7 or 21.5 mm, lateral 21.1 or up to 23 mm, all memory).',
+  taperShortMarginMm: `the spreader reaches within 1 mm of the CWL before obturation. ${ALLISON} found no significant leakage with the spreader within 1 mm of the working length in step-back preparations, and within 2 mm or less in standardised ones: a disagreement; the default takes the stricter step-back 1 mm.`,
+  masterLengthMarginMm:
+    'the master cone goes to the full CWL. Some teaching fits it 0.5 mm short and a size larger (practice, no published source named): a disagreement; the 0.5 mm margin, one ruler step, accepts that practice.',
+  coneFitRetakeThresholdMm: 'retake the cone-fit radiograph when the cone is changed by 1 mm or more.',
+  firstSpreaderMarginMm: `the first spreader placement reaches within 2 mm of the CWL. ${ALLISON} support 2 mm only in standardised preparations; in step-back ones they found 1 mm needed. The default takes the standardised 2 mm, as the trade teaches, for every preparation; a director who wants the step-back figure sets 1.0.`,
+  accessoryLengthMarginMm:
+    'each accessory cone is measured to the depth the spreader reached (trade teaching, practice); the 0.5 mm margin is one ruler step.',
+  minAccessoryCones:
+    'usually 4–5 accessory cones in an average canal, more in wide ones (trade teaching, practice); 3 is the floor below which a note is shown, as narrow canals take fewer.',
+  fallbackStopDepthMm:
+    "stop when the spreader no longer passes the coronal third, about 10–12 mm from a cusp reference in most teeth; the upper end is the default. On an anterior tooth it is scaled by the tooth type's average length, s × A / 21 (judgement; see Canal thirds).",
+  fillShortLimitMm:
+    "a fill more than 2 mm short of the radiographic apex is under-filled (the guidelines seen through their abstract and secondary tables). The contract's fill categories are drawn at this limit.",
+};
+
+/** "Trade teaching (practice): …": a source, its label and the note, as the reference page shows it. */
+export function sourceLine(s: Sourced, note: string): string {
+  const label = s.label.replace(' (', ', ').replace(')', '');
+  return `${s.source.charAt(0).toUpperCase()}${s.source.slice(1)} (${label}): ${note}`;
+}
+
+/** Where each default comes from, shown on the reference page. */
+export const TOLERANCE_SOURCES: Readonly<Record<keyof Tolerances, string>> = /* @__PURE__ */ Object.freeze(
+  Object.fromEntries(
+    (Object.keys(TOLERANCE_LABELS) as (keyof Tolerances)[]).map((k) => [k, sourceLine(TOLERANCE_LABELS[k], NOTES[k])]),
+  ) as Record<keyof Tolerances, string>,
+);
+
 export const DEFAULT_TOLERANCES: Tolerances = Object.freeze({
-  cwlUnusualMarginMm: 4, // judgement; sources of tooth lengths differ (see TOLERANCE_SOURCES)
-  taperShortMarginMm: 1.0, // practice; Allison 1979: 1 mm (step-back) vs 2 mm (standardised)
-  masterLengthMarginMm: 0.5, // practice; one source seats 0.5 mm short, a size larger
+  cwlUnusualMarginMm: 4, // judgement; remembered tooth lengths differ by up to 2 mm
+  taperShortMarginMm: 1.0, // practice; Allison 1979 (seen): 1 mm step-back, 2 mm standardised — step-back taken
+  masterLengthMarginMm: 0.5, // practice; some teaching fits 0.5 mm short (practice, no source named)
   coneFitRetakeThresholdMm: 1.0, // practice
-  firstSpreaderMarginMm: 2.0, // practice
-  accessoryLengthMarginMm: 0.5, // practice; one ruler step
-  minAccessoryCones: 3, // practice says 4–5 usual; 3 is our floor for a note
+  firstSpreaderMarginMm: 2.0, // practice; Allison 1979 (seen) supports 2 mm for standardised canals only — taken
+  accessoryLengthMarginMm: 0.5, // judgement: one ruler step
+  minAccessoryCones: 3, // judgement: practice says 4–5 usual; 3 is our floor for a note
   fallbackStopDepthMm: 12, // practice: 10–12 mm from a cusp tip
-  fillShortLimitMm: 2, // ESE 2006 (seen, secondary); Jurič 2024 (seen)
+  fillShortLimitMm: 2, // Jurič 2024 (seen); ESE 2006 (abstract seen)
 });
 
 /**

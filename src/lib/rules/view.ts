@@ -81,7 +81,8 @@ export function buildView(canalId: string, t: Timeline, tol: Tolerances): CanalV
     cwlEventId: (correction ?? canalAdded).id,
     isTooth,
     tooth: caseOpened.data.tooth,
-    thirds: canalThirds(cwlMm, orifice, tol.fallbackStopDepthMm),
+    // On an anterior tooth the estimate scales with the tooth's average length (thirds.ts).
+    thirds: canalThirds(cwlMm, orifice, tol.fallbackStopDepthMm, isTooth ? caseOpened.data.tooth : undefined),
     withdrawn: new Set(of('accessory.removed').map((x) => x.e.data.eventId)),
     lastSeat: latest(seats),
     firstSeat: seats[0],

@@ -1,4 +1,7 @@
-/** The audit log: who did what to which record. Never holds names or chart numbers. */
+/**
+ * The audit log: who did what to which record. Never holds names; a chart number only where a
+ * patient case leaves the lists (a discard), so the clinic can still trace it.
+ */
 import type { Knex } from 'knex';
 
 export async function audit(

@@ -1,10 +1,12 @@
 /** Case lists and case detail for the API and the pages. */
 import { createHash } from 'node:crypto';
 import type { Knex } from 'knex';
-import type { CaseSummary } from '../contract';
+import type { CaseSummary, ReviewComment, Signoff } from '../contract';
 import type { CanalResult, LogEvent } from '../rules/index';
 import { readableCase, readableCases, type CaseRow } from './access';
 import { caseEvents, REMOVED, storedCanalsOfCase } from './canal-store';
+import { commentsOf } from './comments';
+import { signoffsOf } from './reviews';
 
 export type { CaseSummary } from '../contract';
 
@@ -17,6 +19,8 @@ export async function listCases(
   const q = readableCases(k, user)
     .join('users', 'users.id', 'cases.student_id')
     .select('cases.*', 'users.name as student_name')
+    // A discarded case leaves every list (docs/lifecycle.md); its page still opens.
+    .whereNull('cases.discarded_at')
     .orderBy('cases.opened_at', 'desc');
   if (filter.reviewStatus) q.whereIn('cases.review_status', filter.reviewStatus);
   if (filter.studentId) q.where('cases.student_id', filter.studentId);
@@ -58,6 +62,8 @@ export interface CaseDetail {
   case: CaseRow;
   events: LogEvent[];
   canals: CanalResult[];
+  signoffs: Signoff[];
+  comments: ReviewComment[];
 }
 
 /** One case with every stored event and each canal's state, or null when not readable. */
@@ -71,17 +77,25 @@ export async function caseDetail(k: Knex, user: SessionUser, caseId: string): Pr
   // In the order the canals were set up, as the student met them.
   const setUp = events.filter((e) => e.type === 'canal.added').map((e) => e.canalId);
   canals.sort((a, b) => setUp.indexOf(a.canalId) - setUp.indexOf(b.canalId));
-  return { caseId, case: row, events, canals };
+  return {
+    caseId,
+    case: row,
+    events,
+    canals,
+    signoffs: await signoffsOf(k, caseId),
+    comments: await commentsOf(k, caseId),
+  };
 }
 
 // Bump when the case answer's shape changes, so a tablet's stored ETag stops matching.
-const CASE_ANSWER_FORMAT = 'c1';
+const CASE_ANSWER_FORMAT = 'c2';
 
 /**
  * The case's data version as a strong ETag: a hash of everything GET /api/cases/{id} answers
  * from — the case row's review status, submission, sign-off and updated_at; the count, last
  * rowid and last received_at of its events (never edited, only added); the count and latest
- * updated_at of its canal rows; the count of its findings. Every write that changes the answer
+ * updated_at of its canal rows; the count of its findings; the count, last id and last
+ * superseding of its sign-offs and the count and last id of its comments. Every write that changes the answer
  * (a sync batch, a sign-off) touches one of them; an unchanged case always hashes the same.
  * One indexed query, no events read: the cheap half of a conditional GET.
  */
@@ -93,11 +107,16 @@ export async function caseVersion(k: Knex, caseId: string): Promise<string | nul
       'c.submitted_at',
       'c.signed_off_at',
       'c.updated_at',
+      'c.discarded_at',
       k.raw(
         "(select count(*) || ':' || coalesce(max(rowid), 0) || ':' || coalesce(max(received_at), '') from events where case_id = c.id) as ev",
       ),
       k.raw("(select count(*) || ':' || coalesce(max(updated_at), '') from canals where case_id = c.id) as ca"),
       k.raw('(select count(*) from findings where case_id = c.id) as fi'),
+      k.raw(
+        "(select count(*) || ':' || coalesce(max(id), 0) || ':' || coalesce(max(superseded_at), '') from signoffs where case_id = c.id) as so",
+      ),
+      k.raw("(select count(*) || ':' || coalesce(max(id), 0) from comments where case_id = c.id) as co"),
     )) as Record<string, unknown> | undefined;
   if (!row) return null;
   const hash = createHash('sha256')

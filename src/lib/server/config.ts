@@ -13,13 +13,56 @@ export interface ServerConfig {
   dataDir: string;
   authSecret: string;
   s3: { endpoint: string | undefined; bucket: string; region: string; accessKeyId: string; secretAccessKey: string };
-  smtp: { host: string; port: number; from: string };
+  smtp: SmtpConfig;
+  mail: MailTiming;
   publicUrl: string;
   /** Every date and time a page or the tablet shows is in this zone and locale. */
   clinic: Clinic;
 }
 
+/** The SMTP server e-mail goes through; the defaults reach the stand-in `npm start` runs. */
+export interface SmtpConfig {
+  host: string;
+  port: number;
+  /** TLS from the first byte (port 465); otherwise STARTTLS when the server offers it. */
+  secure: boolean;
+  user: string | undefined;
+  pass: string | undefined;
+  from: string;
+}
+
+/** How often the outbox is looked at, and the first wait before sending a failed e-mail again. */
+export interface MailTiming {
+  pollMs: number;
+  retryMs: number;
+}
+
 let cached: ServerConfig | null = null;
+
+const positive = (raw: string | undefined, fallback: number, name: string): number => {
+  if (raw === undefined || raw.trim() === '') return fallback;
+  const n = Number(raw);
+  if (!Number.isInteger(n) || n <= 0) throw new Error(`${name} must be a positive whole number (it is "${raw}")`);
+  return n;
+};
+
+/** PUBLIC_URL (the address links in e-mail lead to), without a trailing slash; default the local server. */
+export function publicUrlFromEnv(env: NodeJS.ProcessEnv = process.env): string {
+  return (env.PUBLIC_URL?.trim() || `http://localhost:${env.PORT ?? '4321'}`).replace(/\/+$/, '');
+}
+
+/** SMTP_HOST, SMTP_PORT, SMTP_SECURE (1/true), SMTP_USER, SMTP_PASS, MAIL_FROM. */
+export function smtpFromEnv(env: NodeJS.ProcessEnv = process.env): SmtpConfig {
+  const secure = /^(1|true|yes)$/i.test(env.SMTP_SECURE?.trim() ?? '');
+  return {
+    host: env.SMTP_HOST?.trim() || '127.0.0.1',
+    port: positive(env.SMTP_PORT, secure ? 465 : 1025, 'SMTP_PORT'),
+    secure,
+    user: env.SMTP_USER?.trim() || undefined,
+    pass: env.SMTP_PASS || undefined,
+    from: env.MAIL_FROM?.trim() || 'Coneline <coneline@localhost>',
+  };
+}
 
 /** Reads AUTH_SECRET, or keeps a generated one in the data folder so sessions survive restarts. */
 function authSecret(dataDir: string): string {
@@ -55,7 +98,6 @@ export function clinicFromEnv(env: NodeJS.ProcessEnv = process.env): Clinic {
 export function config(): ServerConfig {
   if (cached) return cached;
   const { dbFile, dataDir } = dataPaths();
-  const port = process.env.PORT ?? '4321';
   cached = {
     dbFile,
     dataDir,
@@ -67,12 +109,13 @@ export function config(): ServerConfig {
       accessKeyId: process.env.S3_ACCESS_KEY_ID ?? 'S3RVER',
       secretAccessKey: process.env.S3_SECRET_ACCESS_KEY ?? 'S3RVER',
     },
-    smtp: {
-      host: process.env.SMTP_HOST ?? '127.0.0.1',
-      port: Number(process.env.SMTP_PORT ?? 1025),
-      from: process.env.MAIL_FROM ?? 'Coneline <coneline@localhost>',
+    smtp: smtpFromEnv(),
+    // MAIL_POLL_MS and MAIL_RETRY_MS are for tests and demos; the defaults suit a clinic.
+    mail: {
+      pollMs: positive(process.env.MAIL_POLL_MS, 15_000, 'MAIL_POLL_MS'),
+      retryMs: positive(process.env.MAIL_RETRY_MS, 30_000, 'MAIL_RETRY_MS'),
     },
-    publicUrl: process.env.PUBLIC_URL ?? `http://localhost:${port}`,
+    publicUrl: publicUrlFromEnv(),
     clinic: clinicFromEnv(),
   };
   return cached;

@@ -4,6 +4,7 @@ import { config } from './config';
 import { holdDatabaseLock } from './data-lock';
 import { secureDataDir, secureDbFile } from './files';
 import { sqliteOptions } from './knex-options';
+import { startMailWorker, stopMailWorker } from './mail-worker';
 import { startRecompute, stopRecompute } from './recompute';
 
 type MigrationModule = Knex.Migration;
@@ -42,6 +43,8 @@ export function db(): Promise<Knex> {
       // Canals judged by older rules or settings are judged again in the background, going
       // on from where a previous run stopped.
       void startRecompute(k);
+      // E-mail waiting in the outbox (from before a restart too) goes out after commit.
+      startMailWorker(k);
       return k;
     });
   }
@@ -50,6 +53,7 @@ export function db(): Promise<Knex> {
 
 export async function closeDb(): Promise<void> {
   if (instance) {
+    await stopMailWorker();
     await stopRecompute(instance);
     await instance.destroy();
   }

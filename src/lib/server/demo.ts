@@ -67,6 +67,8 @@ export async function removeDemo(k: Knex): Promise<DemoRemoval> {
 
     // Children first, so each count is exact whether or not the database cascades.
     const byCase = (table: string) => trx(table).whereIn('case_id', demoCases()).del();
+    // E-mail to or about demo accounts is no real clinic's mail.
+    await trx('mail_outbox').whereIn('recipient_id', demoUsers()).orWhereIn('case_id', demoCases()).del();
     const findings = await byCase('findings');
     const radiographs = await byCase('radiographs');
     const signoffs = await byCase('signoffs');

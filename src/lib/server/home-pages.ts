@@ -42,11 +42,14 @@ export async function directorHome(): Promise<DirectorOverview> {
     .select('cohorts.name', 'cohorts.graduation_year')
     .count<{ name: string; graduation_year: number | null; members: number | string }[]>({ members: 'users.id' });
   const people = await k('users').select('name', 'email', 'role', 'active').orderBy(['role', 'name']);
-  const total = await k('cases').count<{ n: number | string }[]>({ n: '*' });
+  // Discarded cases leave the counts as they leave the lists.
+  const total = await k('cases').whereNull('discarded_at').count<{ n: number | string }[]>({ n: '*' });
   const top = await k('findings')
-    .select('code', 'severity')
+    .join('cases', 'cases.id', 'findings.case_id')
+    .whereNull('cases.discarded_at')
+    .select('findings.code as code', 'findings.severity as severity')
     .count<{ code: string; severity: 'stop' | 'caution' | 'note'; n: number | string }[]>({ n: '*' })
-    .groupBy('code', 'severity')
+    .groupBy('findings.code', 'findings.severity')
     .orderBy('n', 'desc')
     .limit(5);
   return {

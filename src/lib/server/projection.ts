@@ -8,6 +8,7 @@
 import type { Knex } from 'knex';
 import type { CaseRow } from './tables';
 import {
+  caseTimeline,
   evaluateCanal,
   isRefusal,
   next,
@@ -22,6 +23,8 @@ import {
 import { REMOVED, rowToEvent, withReviewStatus, type EventRow } from './canal-store';
 import type { CanalDerivedRow, FindingHistoryRow, FindingRow } from './tables';
 import { readSettings, tolerancesOf } from './settings';
+import { audit } from './audit';
+import { noticeSubmitted } from './mail-notices';
 
 /** What judges canals in one run (a batch, a step of the re-judging): read once, not per canal. */
 export interface Judge {
@@ -234,13 +237,13 @@ export async function addCanal(k: Knex, row: { id: string; case_id: string; name
 }
 
 /**
- * Moves a case by an attending's review (`approve`, `return`) through the lifecycle; throws
- * with the lifecycle's reason when the case may not move so.
+ * Moves a case by an attending's review (`approve`, `return`, `reopen`) through the lifecycle;
+ * throws with the lifecycle's reason when the case may not move so.
  */
 export async function reviewCase(
   k: Knex,
   caseId: string,
-  action: 'approve' | 'return',
+  action: 'approve' | 'return' | 'reopen',
   at: string,
 ): Promise<CaseState> {
   const row = (await k('cases').where({ id: caseId }).first('review_status')) as ProjectedCase | undefined;
@@ -249,10 +252,56 @@ export async function reviewCase(
   if (isRefusal(moved)) throw new Error(moved.refused);
   // The column takes the review states only; a discarded case arrives with its own issue.
   if (moved === 'discarded') throw new Error('a review does not discard a case');
-  await k('cases')
-    .where({ id: caseId })
-    .update({ review_status: moved, signed_off_at: moved === 'approved' ? at : null, updated_at: k.fn.now() });
+  // Reopened, the case is back at work: no submission waits and no approval stands.
+  const change = {
+    review_status: moved,
+    signed_off_at: moved === 'approved' ? at : null,
+    ...(action === 'reopen' ? { submitted_at: null } : {}),
+    updated_at: k.fn.now(),
+  };
+  await k('cases').where({ id: caseId }).update(change);
   return moved;
+}
+
+/**
+ * Whether a `case.discarded` stands once voids are applied, and the case's `discarded_at` to
+ * match, through the lifecycle's `discard` and `restore`; each change gets an audit line, which
+ * keeps a patient case's chart number so the clinic can trace a case that left the lists.
+ */
+async function settleDiscard(
+  trx: Knex,
+  caseId: string,
+  row: Pick<CaseRow, 'review_status' | 'discarded_at' | 'chart_ref'>,
+  at: string,
+  actorId: number | null,
+): Promise<void> {
+  const rows: EventRow[] = await trx('events')
+    .select('id', 'case_id', 'canal_id', 'type', 'at', 'data_json')
+    .where({ case_id: caseId })
+    .whereNull('canal_id')
+    .whereIn('type', ['case.discarded', 'event.voided']);
+  const standing = caseTimeline(caseId, rows.map(rowToEvent)).find((e) => e.type === 'case.discarded');
+  const state: CaseState = row.discarded_at === null ? row.review_status : 'discarded';
+  const action: CaseAction | null =
+    standing !== undefined && state !== 'discarded'
+      ? 'discard'
+      : standing === undefined && state === 'discarded'
+        ? 'restore'
+        : null;
+  if (action === null || isRefusal(next(state, action))) return;
+  await trx('cases')
+    .where({ id: caseId })
+    .update({ discarded_at: action === 'discard' ? at : null, updated_at: trx.fn.now() });
+  await audit(trx, actorId, action === 'discard' ? 'case.discard' : 'case.restore', 'case', caseId, {
+    ...(row.chart_ref === null ? {} : { chartRef: row.chart_ref }),
+    ...(standing?.type === 'case.discarded' ? { reason: standing.data.reason } : {}),
+  });
+}
+
+/** How a batch moved the case: a submission stored, a withdrawal of the latest one stored. */
+export interface CaseMoves {
+  submitted: boolean;
+  withdrawn: boolean;
 }
 
 /** A case as the projection needs it. */
@@ -264,15 +313,23 @@ export interface ProjectedCase {
 /**
  * Judges the touched canals of one case (`'all'` after a case-level event), settles the
  * case's status through the lifecycle (a standing submission submits it; a withdrawn one
- * takes it out of the queue) and answers the canals as readers see them.
+ * takes it out of the queue; a standing discard discards it, its void restores it) and
+ * answers the canals as readers see them. `actorId` is the student whose batch it is.
  */
 export async function projectCase(
   trx: Knex,
-  c: ProjectedCase,
+  caseId: string,
   which: ReadonlySet<string> | 'all',
-  submitted: boolean,
+  moves: CaseMoves,
   judge: Judge,
+  actorId: number | null = null,
 ): Promise<CanalResult[]> {
+  const { submitted, withdrawn } = moves;
+  const row = (await trx('cases').where({ id: caseId }).first('review_status', 'discarded_at', 'chart_ref')) as
+    Pick<CaseRow, 'review_status' | 'discarded_at' | 'chart_ref'> | undefined;
+  if (!row) throw new Error(`no case ${caseId}`);
+  const c: ProjectedCase = { id: caseId, review_status: row.review_status };
+  if (which === 'all') await settleDiscard(trx, caseId, row, judge.at, actorId);
   const ids =
     which === 'all'
       ? ((await trx('canals').select('id').where({ case_id: c.id }).orderBy('id')) as { id: string }[]).map((r) => r.id)
@@ -281,7 +338,10 @@ export async function projectCase(
   // Whether a submission stands once voids are applied (the rules' status says so; a case
   // with no canal yet has only the new event to go by).
   const live = out.length > 0 ? out.some((r) => r.state.status === 'submitted') : submitted;
-  const action: CaseAction | null = submitted && live ? 'submit' : which === 'all' && !live ? 'withdraw' : null;
+  // A withdrawal admitted by sync names the latest submission, which an earlier one (returned
+  // since) may outlive in the rules' view: it withdraws all the same.
+  const action: CaseAction | null =
+    submitted && live ? 'submit' : withdrawn || (which === 'all' && !live) ? 'withdraw' : null;
   const moved = action === null ? c.review_status : next(c.review_status, action);
   // A refused move leaves the case as it is: a second submission, a withdrawal of none.
   const review = isRefusal(moved) ? c.review_status : moved;
@@ -292,5 +352,7 @@ export async function projectCase(
     if (review === 'open') change.submitted_at = null;
   }
   await trx('cases').where({ id: c.id }).update(change);
+  // The attendings hear of a submission in the transaction that makes it (mail-notices.ts).
+  if (review === 'submitted' && c.review_status !== 'submitted') await noticeSubmitted(trx, caseId, judge.at);
   return out.map((r) => withReviewStatus(r, review));
 }

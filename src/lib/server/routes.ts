@@ -5,10 +5,15 @@
  * each one to its row. Handlers still check the rows of data they touch.
  */
 
-/** Routes anyone may reach. The chairside shell is static and holds no data. */
+/**
+ * Routes anyone may reach. The chairside shell and the calculators are static, prerendered
+ * files that hold no data (the server hands them out before any session is read, and the
+ * service worker answers them offline); what a user may see comes from the API.
+ */
 export const PUBLIC_ROUTES: ReadonlySet<string> = new Set([
   '/signin',
   '/chairside',
+  '/calculators',
   '/404',
   '/api/auth/[...auth]',
   '/api/health',

@@ -7,6 +7,7 @@ import {
   isRefusal,
   next,
   tallyEvent,
+  type CaseAction,
   type CaseState,
   type LimitBreach,
   type LogEvent,
@@ -15,6 +16,7 @@ import {
 export interface KnownCase {
   id: string;
   student_id: number;
+  /** The lifecycle state: `discarded` while a discard stands, else the review state. */
   review_status: CaseState;
 }
 
@@ -48,6 +50,19 @@ export interface Known {
   refused: Set<string>;
   /** What each of this student's cases holds, for the limits. */
   tallies: Map<string, CaseTally>;
+  /** Cases with a filled canal (a live canal with a seated master cone): they cannot be discarded. */
+  filled: Set<string>;
+  /**
+   * The latest standing submission of each case of the batch that has one, and whether an
+   * attending acted on it (a sign-off, or a comment by someone other than the student, since
+   * it was received): its withdrawal is then refused.
+   */
+  submissions: Map<string, LatestSubmission>;
+}
+
+export interface LatestSubmission {
+  eventId: string;
+  acted: boolean;
 }
 
 export type Refusal = { error: string; retry?: true };
@@ -85,9 +100,16 @@ export function refusal(e: LogEvent, known: Known): Refusal | null {
     return mine ? { error: 'this case was already opened' } : UNKNOWN_CASE;
   }
   if (!c || !mine) return UNKNOWN_CASE;
-  // The lifecycle decides whether the case takes events at all (a signed-off one does not).
-  const lifecycle = next(c.review_status, 'record');
+  // The lifecycle decides whether the case takes the event at all (a signed-off one takes none).
+  const action = lifecycleAction(e, known);
+  const lifecycle = next(c.review_status, action);
   if (isRefusal(lifecycle)) return { error: lifecycle.refused };
+  if (action === 'discard' && known.filled.has(e.caseId)) {
+    return {
+      error:
+        'this case has a filled canal (a master cone is seated), so it stays on the record; ask your attending if it was opened by mistake',
+    };
+  }
   const canal = e.canalId === undefined ? undefined : known.canals.get(e.canalId);
   const ours = canal?.studentId === known.userId;
   if (e.type === 'canal.added') {
@@ -100,6 +122,38 @@ export function refusal(e: LogEvent, known: Known): Refusal | null {
   }
   const ref = (e.data as { eventId?: unknown }).eventId;
   return typeof ref === 'string' ? targetRefusal(e, ref, known) : null;
+}
+
+/**
+ * What an event does to its case's lifecycle: submit it, withdraw its latest submission
+ * (`withdrawReviewed` once the attending acted on it), discard it, restore it (voiding its
+ * discard), attach to an earlier radiograph, or record.
+ */
+export function lifecycleAction(e: LogEvent, known: Known): CaseAction {
+  if (e.type === 'case.discarded') return 'discard';
+  if (e.type === 'case.submitted') return 'submit';
+  if (e.type === 'event.voided' && e.canalId === undefined) {
+    const found = known.targets.get(e.data.eventId);
+    const target = found?.user_id === known.userId ? found : undefined;
+    if (target?.type === 'case.discarded') return 'restore';
+    const latest = known.submissions.get(e.caseId);
+    if (target?.type === 'case.submitted' && latest?.eventId === target.id)
+      return latest.acted ? 'withdrawReviewed' : 'withdraw';
+  }
+  if (attachesToEarlierRadiograph(e)) return 'attach';
+  return 'record';
+}
+
+/**
+ * Whether an event only attaches something to a radiograph recorded before the latest
+ * submission (an upload or a reading of it), which a case waiting for review still takes.
+ * No event type does so yet: `radiograph.taken` records a new radiograph (its optional
+ * `radiographId` names the upload made with it), so it waits like any step. An upload or
+ * reading event naming an earlier `radiograph.taken` will answer true here (docs/lifecycle.md).
+ */
+export function attachesToEarlierRadiograph(e: LogEvent): boolean {
+  void e;
+  return false;
 }
 
 /** Checks of a void or a withdrawn cone against the event it names. */

@@ -4,10 +4,24 @@
  * (docs/sync-contract.md). What may be stored is decided in sync-admit.ts.
  */
 import type { Knex } from 'knex';
-import { canonicalEvent, parseEvent, type CanalResult, type LogEvent } from '../rules/index';
+import { canonicalEvent, caseTimeline, parseEvent, type CanalResult, type LogEvent } from '../rules/index';
 import { addCanal, currentJudge, openCase, projectCase } from './projection';
-import { keep, limitBreach, priorFate, refusal, type Known, type KnownCase, type KnownEvent } from './sync-admit';
+import {
+  keep,
+  lifecycleAction,
+  limitBreach,
+  priorFate,
+  refusal,
+  type Known,
+  type KnownCase,
+  type KnownEvent,
+  type LatestSubmission,
+} from './sync-admit';
+import { isRefusal, next } from '../rules/index';
 import { loadTallies } from './sync-limits';
+import { kickMail } from './mail-worker';
+import { REMOVED, rowToEvent, type EventRow } from './canal-store';
+import type { CaseRow } from './tables';
 
 import { CONTRACT_VERSION, type SyncAnswer, type SyncResult } from '../contract';
 
@@ -56,11 +70,21 @@ async function loadKnown(trx: Knex, userId: number, parsed: Parsed[], refused: S
     'id',
     unique(events.map((e) => e.id)),
   );
-  const cases = await selectIn<KnownCase>(
-    () => trx('cases').select('id', 'student_id', 'review_status'),
+  const caseRows = await selectIn<
+    Omit<KnownCase, 'review_status'> & Pick<CaseRow, 'review_status' | 'discarded_at' | 'submitted_at'>
+  >(
+    () => trx('cases').select('id', 'student_id', 'review_status', 'discarded_at', 'submitted_at'),
     'id',
     unique(events.map((e) => e.caseId)),
   );
+  const cases: KnownCase[] = caseRows.map((c) => ({
+    id: c.id,
+    student_id: c.student_id,
+    review_status: c.discarded_at === null ? c.review_status : 'discarded',
+  }));
+  // Only asked when the batch discards a case: which of them have a filled canal.
+  const discarding = unique(events.filter((e) => e.type === 'case.discarded').map((e) => e.caseId));
+  const filled = discarding.length === 0 ? [] : await filledCases(trx, discarding);
   const canals = await selectIn<{ id: string; case_id: string; student_id: number }>(
     () =>
       trx('canals')
@@ -79,8 +103,10 @@ async function loadKnown(trx: Knex, userId: number, parsed: Parsed[], refused: S
     trx,
     cases.filter((c) => c.student_id === userId).map((c) => c.id),
   );
+  const submissions = await latestSubmissions(trx, caseRows);
   return {
     userId,
+    submissions,
     stored: new Map(stored.map((r) => [r.id, r])),
     kept: new Map(),
     cases: new Map(cases.map((c) => [c.id, c])),
@@ -88,7 +114,58 @@ async function loadKnown(trx: Knex, userId: number, parsed: Parsed[], refused: S
     targets: new Map(targets.map((t) => [t.id, t])),
     refused,
     tallies,
+    filled: new Set(filled),
   };
+}
+
+/**
+ * The latest standing `case.submitted` of each case (voids applied, as the rules apply them)
+ * and whether an attending acted on it since it was received: a sign-off, or a comment by
+ * anyone but the case's student. Only cases waiting for review are asked.
+ */
+async function latestSubmissions(
+  trx: Knex,
+  cases: readonly Pick<CaseRow, 'id' | 'student_id' | 'review_status' | 'submitted_at' | 'discarded_at'>[],
+): Promise<Map<string, LatestSubmission>> {
+  const out = new Map<string, LatestSubmission>();
+  for (const c of cases) {
+    if (c.review_status !== 'submitted' || c.discarded_at !== null) continue;
+    const rows: EventRow[] = await trx('events')
+      .select('id', 'case_id', 'canal_id', 'type', 'at', 'data_json')
+      .where({ case_id: c.id })
+      .whereNull('canal_id')
+      .whereIn('type', ['case.submitted', 'event.voided']);
+    const latest = caseTimeline(c.id, rows.map(rowToEvent))
+      .filter((e) => e.type === 'case.submitted')
+      .at(-1);
+    if (!latest) continue;
+    const since = c.submitted_at ?? '';
+    const signoff = await trx('signoffs').where({ case_id: c.id }).where('created_at', '>=', since).first('id');
+    const comment = signoff
+      ? undefined
+      : await trx('comments')
+          .where({ case_id: c.id })
+          .whereNot('author_id', c.student_id)
+          .where('created_at', '>=', since)
+          .first('id');
+    out.set(c.id, { eventId: latest.id, acted: Boolean(signoff ?? comment) });
+  }
+  return out;
+}
+
+/**
+ * Which of the cases have a live canal with a seated master cone. A canal judged before the
+ * state recorded `unfilled` (rules version 1) counts as filled when its master cone is seated.
+ */
+async function filledCases(trx: Knex, caseIds: string[]): Promise<string[]> {
+  const rows: { case_id: string }[] = await trx('canals')
+    .distinct('case_id')
+    .whereIn('case_id', caseIds)
+    .whereNot('status', REMOVED)
+    .whereRaw(
+      "coalesce(json_extract(state_json, '$.unfilled'), 1 - coalesce(json_extract(state_json, '$.masterCone.seated'), 0)) = 0",
+    );
+  return rows.map((r) => r.case_id);
 }
 
 /** Stores what it can of one batch for `userId` (a student) sent from `deviceId`. */
@@ -115,11 +192,14 @@ export async function ingestBatch(
 
   // The settings are read once per batch, not per canal.
   const judge = await currentJudge(k, now.toISOString());
-  return k.transaction(async (trx) => {
+  const answer = await k.transaction(async (trx): Promise<SyncAnswer> => {
     const known = await loadKnown(trx, userId, parsed, refused);
     const toInsert: Record<string, unknown>[] = [];
     const touched = new Map<string, Set<string> | 'all'>();
     const submittedCases = new Set<string>();
+    const withdrawnCases = new Set<string>();
+    const waitsForReview = (e: LogEvent) =>
+      known.cases.get(e.caseId)?.review_status === 'submitted' && lifecycleAction(e, known) === 'record';
     const receivedAt = judge.at;
     const deferred = new Set<Parsed>();
 
@@ -127,6 +207,12 @@ export async function ingestBatch(
     async function admit(p: Parsed, final: boolean): Promise<void> {
       const { index, event: e, canonical } = p;
       let fate = priorFate(e, canonical, known) ?? refusal(e, known);
+      // A step refused because its case waits for review may follow a withdrawal of that
+      // submission later in the batch (voids come last): it is tried again after them.
+      if (fate && !final && !('status' in fate) && waitsForReview(e)) {
+        deferred.add(p);
+        return;
+      }
       if (!fate) {
         const breach = limitBreach(e, known);
         if (breach?.limit === 'canalsPerCase' && !final) {
@@ -156,6 +242,20 @@ export async function ingestBatch(
         await addCanal(trx, { id: e.canalId!, case_id: e.caseId, name: e.data.name });
         known.canals.set(e.canalId!, { caseId: e.caseId, studentId: userId });
       }
+      // A discard or its void moves the case at once for the rest of the batch; the projection
+      // settles the stored state from the events that stand.
+      const action = lifecycleAction(e, known);
+      if (action !== 'record') {
+        const c = known.cases.get(e.caseId)!;
+        const moved = next(c.review_status, action);
+        if (!isRefusal(moved)) known.cases.set(e.caseId, { ...c, review_status: moved });
+      }
+      if (action === 'submit') known.submissions.set(e.caseId, { eventId: e.id, acted: false });
+      if (action === 'withdraw') {
+        known.submissions.delete(e.caseId);
+        withdrawnCases.add(e.caseId);
+      }
+      if (e.type === 'master.seated') known.filled.add(e.caseId);
       keep(e, known);
       known.kept.set(e.id, canonical);
       toInsert.push({
@@ -190,7 +290,8 @@ export async function ingestBatch(
     for (let i = 0; i < toInsert.length; i += 250) await trx('events').insert(toInsert.slice(i, i + 250));
     const canals: CanalResult[] = [];
     for (const [caseId, which] of touched) {
-      canals.push(...(await projectCase(trx, known.cases.get(caseId)!, which, submittedCases.has(caseId), judge)));
+      const moves = { submitted: submittedCases.has(caseId), withdrawn: withdrawnCases.has(caseId) };
+      canals.push(...(await projectCase(trx, caseId, which, moves, judge, userId)));
     }
     return {
       contractVersion: CONTRACT_VERSION,
@@ -198,4 +299,7 @@ export async function ingestBatch(
       canals,
     };
   });
+  // A submission wrote its notices in the transaction; they go now that it committed.
+  kickMail();
+  return answer;
 }

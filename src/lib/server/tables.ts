@@ -27,6 +27,8 @@ export interface UserRow {
   session_version: number;
   cohort_id: number | null;
   demo: Bool;
+  /** Review notices wait for one daily digest instead of one e-mail each. */
+  mail_digest: Bool;
   created_at: string;
 }
 
@@ -47,6 +49,8 @@ export interface CaseRow {
   opened_at: string;
   submitted_at: string | null;
   review_status: ReviewStatus;
+  /** Set while a `case.discarded` stands: the lifecycle's `discarded` state (review_status is kept beneath it). */
+  discarded_at: string | null;
   signed_off_at: string | null;
   updated_at: string;
 }
@@ -138,10 +142,16 @@ export interface SignoffRow {
   canal_id: string | null;
   checkpoint: 'cone-fit' | 'fill-check' | 'final';
   decision: 'approved' | 'returned' | 'reopened';
+  /** Ratings per canal (`{ [canalId]: { fillLength: 1–4, … } }`); older rows hold other shapes. */
   rubric_json: string | null;
   comment: string | null;
   attending_id: number;
   created_at: string;
+  /** The request's client-made id; null on rows written before sign-offs were an API. */
+  client_id: string | null;
+  /** A final approval superseded by a reopening: when, and the reopening row's id. */
+  superseded_at: string | null;
+  superseded_by: number | null;
 }
 
 export interface CommentRow {
@@ -151,6 +161,30 @@ export interface CommentRow {
   event_id: string | null;
   author_id: number;
   text: string;
+  created_at: string;
+  client_id: string | null;
+}
+
+export type MailStatus = 'held' | 'pending' | 'sent' | 'digested';
+
+/** One e-mail waiting to go, or gone (src/lib/server/mail-outbox.ts). */
+export interface MailOutboxRow {
+  id: string;
+  recipient_id: number;
+  to_address: string;
+  case_id: string | null;
+  kind: string;
+  subject: string;
+  body_text: string;
+  status: MailStatus;
+  attempts: number;
+  next_attempt_at: string;
+  claimed_until: string | null;
+  claim_token: string | null;
+  sent_at: string | null;
+  last_error: string | null;
+  digest_id: string | null;
+  digest_key: string | null;
   created_at: string;
 }
 
@@ -240,5 +274,6 @@ declare module 'knex/types/tables' {
     finding_history: FindingHistoryRow;
     settings_version: SettingsVersionRow;
     recompute_jobs: RecomputeJobRow;
+    mail_outbox: MailOutboxRow;
   }
 }

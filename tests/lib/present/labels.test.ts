@@ -71,6 +71,8 @@ const SAMPLES: { type: EventType; data: object }[] = [
   { type: 'note.added', data: { text: 'Invented note' } },
   { type: 'event.voided', data: { eventId: 'x', reason: '' } },
   { type: 'case.submitted', data: {} },
+  { type: 'compaction.finished', data: {} },
+  { type: 'case.discarded', data: { reason: 'Opened for the wrong tooth' } },
 ];
 
 describe('the present module', () => {

@@ -8,6 +8,7 @@ import {
   NON_STANDARD_SIZES,
   type EventType,
   type LogEvent,
+  toothGroup,
 } from '../../../src/lib/rules';
 import { uuidFor } from './builder';
 
@@ -72,11 +73,13 @@ export const textbookCanal: fc.Arbitrary<TextbookCase> = fc
     spreader: fc.constantFrom('FF', 'MF', 'F', '20', '25'),
     taperShort: half(0, 1),
     dryShort: half(0, 2),
-    fitOff: half(-0.5, 0.5),
+    // A master cone is never past the CWL (master-beyond-cwl), at most one ruler step short.
+    fitOff: half(-0.5, 0),
     firstShort: half(0, 2),
     steps: fc.array(fc.integer({ min: 1, max: 8 }), { minLength: 60, maxLength: 60 }),
     coneOff: fc.array(half(-0.5, 0.5), { minLength: 60, maxLength: 60 }),
     redoAt: fc.option(fc.nat(10), { nil: undefined }),
+    finishRecorded: fc.boolean(),
     fill: fc.constantFrom('flush', 'short-0-2'),
     cej: fc.option(half(0, 3), { nil: undefined }),
     gaps: fc.array(fc.integer({ min: 1, max: 300 }), { minLength: 1, maxLength: 10 }),
@@ -87,7 +90,7 @@ export const textbookCanal: fc.Arbitrary<TextbookCase> = fc
     const orifice =
       g.orificeShare === undefined ? (isTooth ? undefined : 0) : Math.floor((g.cwl * g.orificeShare) / 100) / 1;
     const orificeMm = orifice === undefined ? undefined : Math.floor(orifice * 2) / 2;
-    const thirds = canalThirds(g.cwl, orificeMm);
+    const thirds = canalThirds(g.cwl, orificeMm, undefined, isTooth ? g.tooth : undefined);
     const drafts: Draft[] = [
       {
         type: 'case.opened',
@@ -128,7 +131,8 @@ export const textbookCanal: fc.Arbitrary<TextbookCase> = fc
     for (let k = 0; k < 60 && (cones < 3 || depth > thirds.coronalEndMm + 1e-9); k++) {
       if (k > 0) depth = Math.max(0.5, depth - (g.steps[k] ?? 1) / 2);
       drafts.push({ type: 'spreader.placed', data: { spreader: g.spreader, depthMm: depth } });
-      const length = Math.min(40, Math.max(0.5, depth + (g.coneOff[k] ?? 0)));
+      // Measured to the spreader's depth within one ruler step, never past the CWL.
+      const length = Math.min(g.cwl, Math.max(0.5, depth + (g.coneOff[k] ?? 0)));
       if (g.redoAt === k) {
         drafts.push({ type: 'accessory.placed', data: { size: g.spreader, lengthMm: length, reachedLength: false } });
         drafts.push({ type: 'accessory.removed', data: { eventId: '<previous>', reason: 'stopped short' } });
@@ -136,10 +140,18 @@ export const textbookCanal: fc.Arbitrary<TextbookCase> = fc
       drafts.push({ type: 'accessory.placed', data: { size: g.spreader, lengthMm: length, reachedLength: true } });
       cones += 1;
     }
+    if (g.finishRecorded) drafts.push({ type: 'compaction.finished', data: {} });
     rad('fill-check');
     drafts.push(
       { type: 'fill.assessed', data: { length: g.fill, voids: false } },
-      { type: 'gp.seared', data: { atOrifice: true, relativeToCejMm: isTooth ? g.cej : undefined } },
+      // An anterior tooth's sear level is always recorded (sear-level-missing).
+      {
+        type: 'gp.seared',
+        data: {
+          atOrifice: true,
+          relativeToCejMm: !isTooth ? undefined : toothGroup(g.tooth).anterior ? (g.cej ?? 0) : g.cej,
+        },
+      },
       { type: 'gp.compacted', data: {} },
       { type: 'chamber.cleaned', data: { agent: 'alcohol' } },
       { type: 'access.restored', data: { kind: 'temporary' }, caseLevel: true },
@@ -206,6 +218,8 @@ function dataFor(type: EventType, ids: string[]): fc.Arbitrary<Record<string, un
       return fc.record({ kind: fc.constantFrom('temporary', 'permanent') });
     case 'note.added':
       return fc.constant({ text: 'note' });
+    case 'case.discarded':
+      return fc.constant({ reason: 'opened by mistake' });
     default:
       return fc.constant({});
   }
@@ -248,6 +262,7 @@ export function messyCase(ties: boolean): fc.Arbitrary<MessyCase> {
         for (const s of steps) {
           const caseLevel =
             s.type === 'case.submitted' ||
+            s.type === 'case.discarded' ||
             (s.type === 'access.restored' && s.minute % 2 === 0) ||
             (s.type === 'radiograph.taken' && s.data.purpose === 'post-op');
           events.push(

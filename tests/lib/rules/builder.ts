@@ -188,7 +188,12 @@ export function canal(opts: CanalOptions = {}): CanalLog {
   const log = new CanalLog(opts);
   const isTooth = (opts.setting ?? 'extracted') !== 'block';
   const cwl = opts.cwlMm ?? 21;
-  const thirds = canalThirds(cwl, opts.orificeDepthMm ?? (isTooth ? undefined : 0));
+  const thirds = canalThirds(
+    cwl,
+    opts.orificeDepthMm ?? (isTooth ? undefined : 0),
+    undefined,
+    isTooth ? (opts.tooth ?? 36) : undefined,
+  );
   for (const s of textbookSteps(cwl, opts.mafSize ?? '30', isTooth, thirds.coronalEndMm)) {
     if (!(opts.omit ?? []).includes(s.key)) {
       log.add(s.key, s.type, { ...s.data, ...(opts.patch?.[s.key] ?? {}) }, { caseLevel: s.caseLevel });

@@ -21,14 +21,14 @@ const error = (r: unknown) => {
 
 describe('EVENT_TYPES', () => {
   it('lists every type of the sync contract', () => {
-    expect(EVENT_TYPES).toHaveLength(21);
-    expect(new Set(EVENT_TYPES).size).toBe(21);
+    expect(EVENT_TYPES).toHaveLength(23);
+    expect(new Set(EVENT_TYPES).size).toBe(23);
   });
 });
 
 describe('CASE_LEVEL_ONLY', () => {
-  it('holds case.opened and case.submitted', () => {
-    expect([...CASE_LEVEL_ONLY].sort()).toEqual(['case.opened', 'case.submitted']);
+  it('holds case.opened, case.submitted and case.discarded', () => {
+    expect([...CASE_LEVEL_ONLY].sort()).toEqual(['case.discarded', 'case.opened', 'case.submitted']);
   });
 });
 

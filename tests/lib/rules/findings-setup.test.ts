@@ -9,7 +9,7 @@ describe('evaluateCanal', () => {
   });
 
   describe('cwl-unusual-for-tooth', () => {
-    // Molars about 20–22 mm (dental anatomy texts — memory): FDI 36 averages 21 mm; margin 4 mm (judgement).
+    // Molars about 20–22 mm (team's knowledge — memory): FDI 36 averages 21 mm; margin 4 mm (judgement).
     it('notes a CWL more than 4 mm longer than the tooth type average', () => {
       const log = canal({ cwlMm: 25.5 });
       const [f] = only(log.evaluate(), 'cwl-unusual-for-tooth');
@@ -30,9 +30,20 @@ describe('evaluateCanal', () => {
       const fix = log.add('fix', 'canal.cwlCorrected', { cwlMm: 25.5, reason: 'new radiograph' });
       expect(only(log.evaluate(), 'cwl-unusual-for-tooth')[0]?.eventId).toBe(fix.id);
     });
-    it('does not apply to a training block, nor to a tooth with no average in the table', () => {
+    it('does not apply to a training block, nor to a tooth with no average in the table (third molars: judgement)', () => {
       expect(only(canal({ setting: 'block', cwlMm: 30 }).evaluate(), 'cwl-unusual-for-tooth')).toEqual([]);
-      expect(only(canal({ tooth: 45, cwlMm: 30 }).evaluate(), 'cwl-unusual-for-tooth')).toEqual([]);
+      expect(only(canal({ tooth: 48, cwlMm: 30 }).evaluate(), 'cwl-unusual-for-tooth')).toEqual([]);
+    });
+    it('notes an implausible CWL on a mandibular canine (27 mm) or a second premolar (22.5 mm) (Wheeler’s crown + root — memory)', () => {
+      for (const tooth of [33, 43]) {
+        expect(only(canal({ tooth, cwlMm: 22.5 }).evaluate(), 'cwl-unusual-for-tooth'), String(tooth)).toHaveLength(1);
+        expect(only(canal({ tooth, cwlMm: 23 }).evaluate(), 'cwl-unusual-for-tooth'), String(tooth)).toEqual([]);
+      }
+      for (const tooth of [15, 25, 35, 45]) {
+        expect(only(canal({ tooth, cwlMm: 27 }).evaluate(), 'cwl-unusual-for-tooth'), String(tooth)).toHaveLength(1);
+        expect(only(canal({ tooth, cwlMm: 26.5 }).evaluate(), 'cwl-unusual-for-tooth'), String(tooth)).toEqual([]);
+        expect(only(canal({ tooth, cwlMm: 18 }).evaluate(), 'cwl-unusual-for-tooth'), String(tooth)).toHaveLength(1);
+      }
     });
     it('follows a course director’s wider margin', () => {
       expect(only(canal({ cwlMm: 25.5 }).evaluate({ cwlUnusualMarginMm: 5 }), 'cwl-unusual-for-tooth')).toEqual([]);
@@ -200,20 +211,23 @@ describe('evaluateCanal', () => {
   });
 
   describe('master-length-mismatch', () => {
-    // Master cone to the full CWL: practice; margin 0.5 mm (one source seats it 0.5 mm short).
+    // Master cone to the full CWL: practice; margin 0.5 mm (some teaching fits it 0.5 mm short — practice).
     it('stops a master cone that did not reach', () => {
       const log = canal({ patch: { fit: { reachedLength: false } } });
       expect(only(log.evaluate(), 'master-length-mismatch')).toEqual([
         expect.objectContaining({ severity: 'stop', eventId: log.id('fit') }),
       ]);
     });
-    it('stops a fit more than 0.5 mm from the CWL either way', () => {
+    it('stops a fit more than 0.5 mm short of the CWL', () => {
       expect(only(canal({ patch: { fit: { lengthMm: 20 } } }).evaluate(), 'master-length-mismatch')).toHaveLength(1);
-      expect(only(canal({ patch: { fit: { lengthMm: 22 } } }).evaluate(), 'master-length-mismatch')).toHaveLength(1);
     });
-    it('passes a fit exactly 0.5 mm from the CWL (practice)', () => {
+    it('passes a fit exactly 0.5 mm short of the CWL (practice)', () => {
       expect(only(canal({ patch: { fit: { lengthMm: 20.5 } } }).evaluate(), 'master-length-mismatch')).toEqual([]);
-      expect(only(canal({ patch: { fit: { lengthMm: 21.5 } } }).evaluate(), 'master-length-mismatch')).toEqual([]);
+    });
+    it('leaves a fit past the CWL to master-beyond-cwl, whatever the margin', () => {
+      const log = canal({ patch: { fit: { lengthMm: 22 } } });
+      expect(only(log.evaluate(), 'master-length-mismatch')).toEqual([]);
+      expect(only(log.evaluate(), 'master-beyond-cwl')).toHaveLength(1);
     });
   });
 

@@ -11,7 +11,7 @@ import {
 } from '../../../src/lib/rules';
 
 describe('ISO_SIZES', () => {
-  it('lists 06, 08, 10, then 15–60 by 5, then 70–140 by 10 (ISO 3630-1 as summarised — partly)', () => {
+  it('lists 06, 08, 10, then 15–60 by 5, then 70–140 by 10 (ISO 3630-1 — memory)', () => {
     expect(ISO_SIZES).toEqual([
       '06',
       '08',
@@ -39,7 +39,7 @@ describe('ISO_SIZES', () => {
 });
 
 describe('NON_STANDARD_SIZES', () => {
-  it('lists the designations XF to XL (dental-education text — seen, weak)', () => {
+  it('lists the designations XF to XL (ISO 6877 — memory)', () => {
     expect(NON_STANDARD_SIZES).toEqual(['XF', 'FF', 'MF', 'F', 'FM', 'M', 'ML', 'L', 'XL']);
   });
 });
@@ -72,7 +72,7 @@ describe('normaliseSize', () => {
 });
 
 describe('isoColour', () => {
-  it('gives white, yellow, red, blue, green, black for 15–40 (ISO 3630-1 as summarised — seen)', () => {
+  it('gives white, yellow, red, blue, green, black for 15–40 (ISO 3630-1 — memory)', () => {
     expect(['15', '20', '25', '30', '35', '40'].map((s) => isoColour(s)?.name)).toEqual([
       'white',
       'yellow',
@@ -82,7 +82,7 @@ describe('isoColour', () => {
       'black',
     ]);
   });
-  it('repeats the cycle for 45–80 and 90–140 (ISO 3630-1 as summarised — partly)', () => {
+  it('repeats the cycle for 45–80 and 90–140 (ISO 3630-1 — memory)', () => {
     expect(['45', '50', '55', '60', '70', '80'].map((s) => isoColour(s)?.name)).toEqual([
       'white',
       'yellow',

@@ -3,7 +3,9 @@ import {
   averageLengthMm,
   fdiToUniversal,
   isValidFdi,
+  pickCanal,
   referencePointsFor,
+  SINGLE_CANAL,
   toothGroup,
   toothName,
   universalToFdi,
@@ -102,6 +104,37 @@ describe('usualCanals', () => {
   it('proposes nothing for an invalid number', () => {
     expect(usualCanals(0)).toEqual({ canals: [], optional: [] });
   });
+  it('offers a second canal, as the pair B and L, for mandibular incisors, mandibular first premolars and maxillary second premolars (Vertucci 1984 — memory)', () => {
+    for (const n of [31, 32, 41, 42, 34, 44, 15, 25])
+      expect(usualCanals(n), String(n)).toEqual({ canals: [SINGLE_CANAL], optional: ['B', 'L'] });
+  });
+  it('keeps one canal and offers none for the other single-canal teeth', () => {
+    for (const n of [11, 12, 13, 21, 22, 23, 33, 43, 35, 45, 51, 71])
+      expect(usualCanals(n), String(n)).toEqual({ canals: [SINGLE_CANAL], optional: [] });
+  });
+});
+
+describe('pickCanal', () => {
+  const incisor = usualCanals(31);
+  it('puts B and L in place of the single canal when a second canal is added', () => {
+    expect(pickCanal(incisor, [SINGLE_CANAL], 'L')).toEqual(['B', 'L']);
+    expect(pickCanal(incisor, [SINGLE_CANAL], 'B')).toEqual(['B', 'L']);
+  });
+  it('keeps a canal the student named when the pair replaces the single canal', () => {
+    expect(pickCanal(incisor, [SINGLE_CANAL, 'X'], 'L')).toEqual(['B', 'L', 'X']);
+  });
+  it('adds the one canal only once the single canal is not picked, and unpicks a picked canal', () => {
+    expect(pickCanal(incisor, [], 'L')).toEqual(['L']);
+    expect(pickCanal(incisor, ['B', 'L'], 'L')).toEqual(['B']);
+    expect(pickCanal(incisor, [SINGLE_CANAL], SINGLE_CANAL)).toEqual([]);
+  });
+  it('adds beside the others on teeth with more canals (MB2 beside MB, DB, P)', () => {
+    expect(pickCanal(usualCanals(16), ['MB', 'DB', 'P'], 'MB2')).toEqual(['MB', 'DB', 'P', 'MB2']);
+    expect(pickCanal(usualCanals(24), ['B', 'L'], 'L')).toEqual(['B']);
+  });
+  it('adds a name typed by the student beside the single canal on a tooth with no second canal offered', () => {
+    expect(pickCanal(usualCanals(11), [SINGLE_CANAL], 'L')).toEqual([SINGLE_CANAL, 'L']);
+  });
 });
 
 describe('referencePointsFor', () => {
@@ -120,13 +153,24 @@ describe('averageLengthMm', () => {
   it('takes the midpoint of the maxillary first premolar range 21.5–23 mm (Grossman 2020 — seen)', () => {
     expect(averageLengthMm(14)).toBe(22.25);
   });
-  it('gives mandibular central 20.7, lateral 21.1, first premolar 22.5 mm (textbooks, PMC4195450 — seen, sources differ)', () => {
-    expect([31, 32, 34].map(averageLengthMm)).toEqual([20.7, 21.1, 22.5]);
+  it('gives mandibular central 20.7 and lateral 21.1 mm (team’s knowledge — memory; not in PMC4195450)', () => {
+    expect([31, 32, 41, 42].map(averageLengthMm)).toEqual([20.7, 21.1, 20.7, 21.1]);
+  });
+  it('gives the mandibular first premolar 22.5 mm (PMC4195450 — seen)', () => {
+    expect([34, 44].map(averageLengthMm)).toEqual([22.5, 22.5]);
+  });
+  it('gives the mandibular canine 27 mm and both second premolars 22.5 mm (Wheeler’s crown + root — memory)', () => {
+    expect([33, 43].map(averageLengthMm)).toEqual([27, 27]);
+    expect([15, 25, 35, 45].map(averageLengthMm)).toEqual([22.5, 22.5, 22.5, 22.5]);
   });
   it('gives 21 mm for first and second molars (about 20–22 mm — memory)', () => {
     expect([16, 17, 36, 47].map(averageLengthMm)).toEqual([21, 21, 21, 21]);
   });
-  it('has no value where the table has none', () => {
-    expect([15, 33, 35, 18, 38, 55, 99].map(averageLengthMm)).toEqual([null, null, null, null, null, null, null]);
+  it('has a value for every permanent tooth but the third molars (judgement: they vary too much)', () => {
+    for (const q of [1, 2, 3, 4])
+      for (let t = 1; t <= 7; t++) expect(averageLengthMm(q * 10 + t), String(q * 10 + t)).toBeGreaterThan(0);
+  });
+  it('has no value for third molars, primary teeth and invalid numbers', () => {
+    expect([18, 28, 38, 48, 55, 73, 99].map(averageLengthMm)).toEqual([null, null, null, null, null, null, null]);
   });
 });

@@ -1,7 +1,14 @@
 // The settings store: named numbers with ranges and defaults, under one version.
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { DEFAULT_TOLERANCES, TOLERANCE_RANGES } from '../../../src/lib/rules/index';
-import { readSettings, SETTING_DEFS, settingError, tolerances, writeSettings } from '../../../src/lib/server/settings';
+import {
+  readSettings,
+  SETTING_DEFS,
+  settingError,
+  SettingsError,
+  tolerances,
+  writeSettings,
+} from '../../../src/lib/server/settings';
 import { syncDb, type SyncDb } from '../../helpers/sync-db';
 
 let db: SyncDb;
@@ -59,5 +66,31 @@ describe('settingError and SETTING_DEFS', () => {
     expect(settingError('minAccessoryCones', 3.5)).toMatch(/whole/);
     expect(settingError('fallbackStopDepthMm', 20)).toMatch(/between 8 and 16/);
     expect(settingError('fallbackStopDepthMm', 10)).toBeNull();
+  });
+});
+
+describe('the tolerances at the bounds of their ranges (TOLERANCE_RANGES, docs/rules.md)', () => {
+  const keys = Object.keys(TOLERANCE_RANGES) as (keyof typeof TOLERANCE_RANGES)[];
+  it.each(keys)('settingError accepts %s at its minimum and maximum and refuses 0.01 beyond either', (key) => {
+    const { min, max } = TOLERANCE_RANGES[key];
+    expect(settingError(key, min)).toBeNull();
+    expect(settingError(key, max)).toBeNull();
+    expect(settingError(key, min - 0.01)).toMatch(/between|whole/);
+    expect(settingError(key, max + 0.01)).toMatch(/between|whole/);
+  });
+  it('stores every tolerance at its minimum, then at its maximum, and the rules receive them', async () => {
+    const at = (bound: 'min' | 'max') => Object.fromEntries(keys.map((k) => [k, TOLERANCE_RANGES[k][bound]]));
+    await writeSettings(db.k, null, at('min'));
+    expect(await tolerances(db.k)).toEqual(at('min'));
+    await writeSettings(db.k, null, at('max'));
+    expect(await tolerances(db.k)).toEqual(at('max'));
+    await writeSettings(db.k, null, { ...DEFAULT_TOLERANCES });
+  });
+  it.each(keys)('refuses to store %s 0.01 beyond its maximum, storing nothing', async (key) => {
+    const before = await readSettings(db.k);
+    await expect(
+      writeSettings(db.k, null, { [key]: TOLERANCE_RANGES[key].max + 0.01, requiredMolarCanals: 9 }),
+    ).rejects.toBeInstanceOf(SettingsError);
+    expect(await readSettings(db.k)).toEqual(before);
   });
 });

@@ -3,6 +3,7 @@ import { db } from '../../../lib/server/db';
 import { jsonError } from '../../../lib/server/http';
 import { UUID_RE } from '../../../lib/server/access';
 import { readCaseIfChanged } from '../../../lib/server/cases';
+import type { CaseDetail as CaseDetailAnswer } from '../../../lib/contract';
 
 // Health data: never kept in the browser's HTTP cache (a shared clinic tablet). The island
 // keeps its own copy in IndexedDB with the ETag and revalidates with If-None-Match itself
@@ -20,7 +21,14 @@ export const GET: APIRoute = async ({ params, locals, request }) => {
   if (read.kind === 'unchanged') return new Response(null, { status: 304, headers: { ...NO_STORE, ETag: read.etag } });
   const { detail } = read;
   return Response.json(
-    { caseId: detail.caseId, reviewStatus: detail.case.review_status, events: detail.events, canals: detail.canals },
+    {
+      caseId: detail.caseId,
+      reviewStatus: detail.case.review_status,
+      events: detail.events,
+      canals: detail.canals,
+      signoffs: detail.signoffs,
+      comments: detail.comments,
+    } satisfies CaseDetailAnswer,
     { headers: { ...NO_STORE, ETag: read.etag } },
   );
 };
