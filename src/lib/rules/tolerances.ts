@@ -61,12 +61,22 @@ export function sourceLine(s: Sourced, note: string): string {
   return `${s.source.charAt(0).toUpperCase()}${s.source.slice(1)} (${label}): ${note}`;
 }
 
-/** Where each default comes from, shown on the reference page. */
-export const TOLERANCE_SOURCES: Readonly<Record<keyof Tolerances, string>> = /* @__PURE__ */ Object.freeze(
-  Object.fromEntries(
-    (Object.keys(TOLERANCE_LABELS) as (keyof Tolerances)[]).map((k) => [k, sourceLine(TOLERANCE_LABELS[k], NOTES[k])]),
-  ) as Record<keyof Tolerances, string>,
-);
+function toleranceSources(): Readonly<Record<keyof Tolerances, string>> {
+  return Object.freeze(
+    Object.fromEntries(
+      (Object.keys(TOLERANCE_LABELS) as (keyof Tolerances)[]).map((k) => [
+        k,
+        sourceLine(TOLERANCE_LABELS[k], NOTES[k]),
+      ]),
+    ) as Record<keyof Tolerances, string>,
+  );
+}
+
+/**
+ * Where each default comes from, shown on the reference page. Built by one pure call, so a
+ * bundle that never reads it (the tablet's) leaves the notes out.
+ */
+export const TOLERANCE_SOURCES: Readonly<Record<keyof Tolerances, string>> = /* @__PURE__ */ toleranceSources();
 
 export const DEFAULT_TOLERANCES: Tolerances = Object.freeze({
   cwlUnusualMarginMm: 4, // judgement; remembered tooth lengths differ by up to 2 mm
