@@ -63,6 +63,9 @@ export default defineConfig({
     build: {
       minify: 'terser',
       terserOptions: { compress: { passes: 2 } },
+      // The chairside's later screens are dynamic imports whose own imports the page has
+      // already loaded: no preload lists to carry in its first-paint budget.
+      modulePreload: false,
       rollupOptions: { output: { manualChunks: reactChunk } },
     },
     // better-sqlite3 and argon2 are native: keep them out of the server bundle.

@@ -1,20 +1,22 @@
-import { useEffect, useMemo } from 'react';
+import { lazy, Suspense, useEffect, useMemo } from 'react';
 import type { LogEvent } from '../../lib/rules/core';
 import type { CanalInfo, Setting } from '../../lib/client/derive';
 import { nextCard, type Card } from '../../lib/client/flow';
 import { useChairside } from '../../lib/client/store';
 import { shownResult } from '../../lib/client/views';
-import { keepAwake } from '../../lib/client/wakeLock';
 import { canalTitle } from '../../lib/present/labels';
 import { CanalDiagram } from '../shared/CanalDiagram';
 import type { CardProps } from './cardTypes';
 import { useCardGuard } from './useCardGuard';
 import { CanalTimeline } from './CanalTimeline';
-import { CwlCorrection } from './CwlCorrection';
 import { FindingList, JustEntered } from './FindingList';
 import { AccessoryCard, RemoveCard, SpreaderCard } from './StepCardsCompaction';
 import { CleanCard, CompactCard, DoneCard, FillCard, SearCard } from './StepCardsFinish';
 import { DryCard, MasterCard, RadiographCard, RinseCard, SealCard, SeatCard, TaperCard } from './StepCardsPrep';
+
+// Correcting the CWL is rare: its panel loads with the first card (precached), in a box of
+// the button's height so nothing below it moves when it arrives.
+const CwlCorrection = lazy(() => import('./CwlCorrection').then((m) => ({ default: m.CwlCorrection })));
 
 function renderCard(card: Card, p: CardProps, onFinishTooth: () => void, retake: boolean) {
   switch (card.kind) {
@@ -68,7 +70,18 @@ export function CanalStepper(props: {
   const last = useChairside((s) => s.last);
   const record = useChairside((s) => s.record);
 
-  useEffect(() => keepAwake(), [canalId]);
+  // The screen stays awake while a canal is open; the wake lock's code loads with the first canal.
+  useEffect(() => {
+    let release: (() => void) | null = null;
+    let open = true;
+    void import('../../lib/client/wakeLock').then((m) => {
+      if (open) release = m.keepAwake();
+    });
+    return () => {
+      open = false;
+      release?.();
+    };
+  }, [canalId]);
 
   const canal = props.canal;
   // Recorded as an event from contract version 2; a mark kept on the tablet before that.
@@ -117,7 +130,9 @@ export function CanalStepper(props: {
           <JustEntered key={lastHere.eventId} label={lastHere.label} value={lastHere.value} findings={verdict} />
         )}
         <FindingList findings={findings} source={shown.source} />
-        <CwlCorrection canalId={canal.canalId} cwlMm={canal.cwlMm} />
+        <Suspense fallback={<div className="mt-4 min-h-14" />}>
+          <CwlCorrection canalId={canal.canalId} cwlMm={canal.cwlMm} />
+        </Suspense>
         <CanalTimeline canal={canal} />
       </div>
       <aside

@@ -1,16 +1,18 @@
 import { lazy, useState } from 'react';
 import type { CaseInfo, TabletCase } from '../../lib/client/derive';
 import { useChairside } from '../../lib/client/store';
+import { lockOf } from '../../lib/client/views';
 import { CanalStepper } from './CanalStepper';
 import { CanalTabs } from './CanalTabs';
-import { canDiscard, DiscardCase, discardOpenCase } from './DiscardCase';
 import { Later } from './Later';
-import { lockOf, ReviewLock } from './ReviewLock';
 
-// Set-up and finishing come once per canal or tooth: loaded when first opened (see ChairsideApp).
+// Set-up, finishing, discarding and the review lock come once per canal or case: loaded when
+// first shown (see ChairsideApp).
 const CanalPicker = lazy(() => import('./CanalPicker').then((m) => ({ default: m.CanalPicker })));
 const CanalSetup = lazy(() => import('./CanalSetup').then((m) => ({ default: m.CanalSetup })));
 const Summary = lazy(() => import('./Summary').then((m) => ({ default: m.Summary })));
+const DiscardCase = lazy(() => import('./DiscardCase').then((m) => ({ default: m.DiscardCase })));
+const ReviewLock = lazy(() => import('./ReviewLock').then((m) => ({ default: m.ReviewLock })));
 
 /** One open case: canal tabs, and below them the canal stepper, the canal set-up or the finishing card. */
 export function CaseView(props: { info: CaseInfo; tablet: TabletCase }) {
@@ -51,8 +53,12 @@ export function CaseView(props: { info: CaseInfo; tablet: TabletCase }) {
           if (first !== null) {
             selectCanal(first);
             setView('canal');
-          } else if (canDiscard(tablet, serverContract)) {
-            void discardOpenCase(info.caseId, 'Cancelled before any canal was set up');
+          } else {
+            void import('./DiscardCase').then((m) => {
+              if (m.canDiscard(tablet, serverContract)) {
+                void m.discardOpenCase(info.caseId, 'Cancelled before any canal was set up');
+              }
+            });
           }
         }}
         onDone={(id) => {

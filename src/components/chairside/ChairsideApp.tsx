@@ -1,5 +1,4 @@
 import { lazy, Suspense, useEffect, useLayoutEffect, useState } from 'react';
-import { registerServiceWorker } from '../../lib/client/pwa';
 import { useChairside } from '../../lib/client/store';
 import { StepCard } from './AnswerButtons';
 import { CaseList } from './CaseList';
@@ -35,14 +34,18 @@ export default function ChairsideApp() {
 
   useEffect(() => {
     void useChairside.getState().init();
-    registerServiceWorker((accept) => setUpdate(() => accept));
+    // The worker's registration loads on its own: nothing on the first screen waits for it.
+    void import('../../lib/client/pwa').then((m) => m.registerServiceWorker((accept) => setUpdate(() => accept)));
   }, []);
 
   const info = tablet.caseId === caseId ? tablet.info : null;
   // Opening the new case ends "creating": leaving it later (a discard) goes back to the list.
-  useEffect(() => {
+  // Adjusted while rendering, as React advises for state that follows a prop, not in an effect.
+  const [caseSeen, setCaseSeen] = useState(caseId);
+  if (caseId !== caseSeen) {
+    setCaseSeen(caseId);
     if (caseId) setCreating(false);
-  }, [caseId]);
+  }
 
   // The page was served with a static shell (src/pages/chairside.astro): it stays until the
   // tablet's log is open, and goes in the same frame as this island's first screen appears.

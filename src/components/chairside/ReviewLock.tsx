@@ -1,18 +1,9 @@
-import type { ReviewStatus } from '../../lib/client/api';
 import type { TabletCase } from '../../lib/client/derive';
 import { useChairside } from '../../lib/client/store';
 import { Answer, Answers, StepCard } from './AnswerButtons';
 
-/**
- * Why the tablet records nothing in this case now, or null when it may: a standing submission
- * the attending has not returned (docs/lifecycle.md), or a signed-off case. The server refuses
- * such steps too; blocking them here keeps offline taps from turning into refusals later.
- */
-export function lockOf(tablet: TabletCase, review: ReviewStatus | undefined): 'submitted' | 'approved' | null {
-  if (review === 'approved') return 'approved';
-  if (tablet.info?.submitted && review !== 'returned') return 'submitted';
-  return null;
-}
+// Whether the case is locked is decided in views.ts, so the stepper can ask without loading this card.
+export { lockOf } from '../../lib/client/views';
 
 /** The card shown instead of the step cards while the case is locked. */
 export function ReviewLock({ tablet, lock }: { tablet: TabletCase; lock: 'submitted' | 'approved' }) {

@@ -17,7 +17,7 @@ import {
   type StoredEvent,
 } from './outbox';
 import { deviceId as loadDeviceId, leave, resolveIdentity, type Identity } from './session';
-import { askToKeepData, type Persistence } from './storage';
+import type { Persistence } from './storage';
 import { SyncLoop, type SyncStatus } from './syncLoop';
 import { RepeatFilter } from './tapGuard';
 import { limitRefusal } from './views';
@@ -144,7 +144,8 @@ export const useChairside = create<ChairsideState>((set, get) => {
       }
       set({ phase: 'ready' });
       if (id !== undefined && identity.source === 'server') {
-        void askToKeepData(id).then((persistence) => set({ persistence }));
+        // Asked once the tablet is open; its code loads then, not with the first paint.
+        void import('./storage').then((m) => m.askToKeepData(id)).then((persistence) => set({ persistence }));
       }
       if (!loop && id !== undefined) {
         loop = new SyncLoop({

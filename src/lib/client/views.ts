@@ -1,5 +1,7 @@
 import { tallyEvent, tallyOf, type CanalResult, type LogEvent } from '../rules/core';
 import { caseEvents } from './derive';
+import type { ReviewStatus } from './api';
+import type { TabletCase } from './derive';
 import type { ServerCanal, StoredEvent } from './outbox';
 
 export interface ShownResult {
@@ -38,4 +40,15 @@ export function rejectedIn(rows: StoredEvent[], caseId: string | null): StoredEv
  */
 export function limitRefusal(rows: StoredEvent[], e: LogEvent): string | null {
   return tallyOf(caseEvents(rows, e.caseId)).breach(tallyEvent(e))?.error ?? null;
+}
+
+/**
+ * Why the tablet records nothing in this case now, or null when it may: a standing submission
+ * the attending has not returned (docs/lifecycle.md), or a signed-off case. The server refuses
+ * such steps too; blocking them here keeps offline taps from turning into refusals later.
+ */
+export function lockOf(tablet: TabletCase, review: ReviewStatus | undefined): 'submitted' | 'approved' | null {
+  if (review === 'approved') return 'approved';
+  if (tablet.info?.submitted && review !== 'returned') return 'submitted';
+  return null;
 }
