@@ -1,6 +1,6 @@
 import { SAFETY_LINE } from '../../lib/rules/core';
 
-/** The Coneline mark: the word in bold, a short line under "cone" (look-and-feel.md). */
+/** The Coneline mark: the word in bold, a short line under "cone" (a cone on its length line). */
 export function ConelineMark() {
   return (
     <span className="font-bold text-2xl tracking-tight shrink-0" role="img" aria-label="Coneline">

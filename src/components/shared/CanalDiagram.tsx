@@ -132,36 +132,31 @@ export function CanalDiagram({
       >
         <title>{summary}</title>
         {/* thirds, named upright beside the shading when there is room for the word */}
-        <rect x={BAND} y={y(orificeMm)} width={W - BAND - 4} height={y(coronalEndMm) - y(orificeMm)} fill="#EFE9DD" />
-        <rect
-          x={BAND}
-          y={y(coronalEndMm)}
-          width={W - BAND - 4}
-          height={y(middleEndMm) - y(coronalEndMm)}
-          fill="#F8F6F1"
-        />
-        <rect x={BAND} y={y(middleEndMm)} width={W - BAND - 4} height={y(cwl) - y(middleEndMm)} fill="#E4DCCB" />
         {(
           [
-            ['coronal', orificeMm, coronalEndMm],
-            ['middle', coronalEndMm, middleEndMm],
-            ['apical', middleEndMm, cwl],
+            ['coronal', orificeMm, coronalEndMm, '#EFE9DD'],
+            ['middle', coronalEndMm, middleEndMm, '#F8F6F1'],
+            ['apical', middleEndMm, cwl, '#E4DCCB'],
           ] as const
-        ).map(([label, a, b]) => {
+        ).map(([label, a, b, fill]) => {
           const mid = (y(a) + y(b)) / 2;
-          return y(b) - y(a) > label.length * fs * 0.6 ? (
-            <text
-              key={label}
-              x={BAND - 6}
-              y={mid}
-              fontSize={fs}
-              fill={MUTED}
-              textAnchor="middle"
-              transform={`rotate(-90 ${BAND - 6} ${mid})`}
-            >
-              {label}
-            </text>
-          ) : null;
+          return (
+            <g key={label}>
+              <rect x={BAND} y={y(a)} width={W - BAND - 4} height={y(b) - y(a)} fill={fill} />
+              {y(b) - y(a) > label.length * fs * 0.6 && (
+                <text
+                  x={BAND - 6}
+                  y={mid}
+                  fontSize={fs}
+                  fill={MUTED}
+                  textAnchor="middle"
+                  transform={`rotate(-90 ${BAND - 6} ${mid})`}
+                >
+                  {label}
+                </text>
+              )}
+            </g>
+          );
         })}
         {/* reference point and orifice */}
         <line x1={4} x2={W - 4} y1={TOP} y2={TOP} stroke={INK} strokeWidth="2" />
