@@ -48,7 +48,8 @@ export function Shell() {
             Loading your cases…
           </h2>
           <p className="text-lg text-muted mb-3">
-            The log on this tablet opens in a moment, with or without a network.
+            The log on this tablet opens in a moment, with or without a network. What you record is kept here first and
+            sent when the network allows.
           </p>
           <div className="h-16 w-56 rounded-xl bg-paper border-2 border-line" aria-hidden="true" />
         </section>
