@@ -147,8 +147,8 @@ describe('the case around the canals on the tablet', () => {
     await page.getByTestId('quadrant-3').click();
     await page.getByTestId('tooth-36').click();
     await page.getByTestId('canals-confirm').click();
-    // The set-up card loads on first use: wait for it rather than read the picker's title.
-    await page.getByRole('heading', { name: 'Set up the MB canal' }).waitFor();
+    // The set-up card loads on first use: wait for it rather than read the title at once.
+    await page.locator('#step-title', { hasText: 'Set up the MB canal' }).waitFor();
     await page.getByRole('button', { name: 'Cancel', exact: true }).click();
     await page.getByText('Set up the ML canal').waitFor();
     await page.getByRole('button', { name: 'Cancel', exact: true }).click();
