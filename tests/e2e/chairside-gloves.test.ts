@@ -129,6 +129,7 @@ describe('the chairside island for gloved hands', () => {
   });
 
   it('shows an answer the server refused, with its reason, until the student dismisses it', async () => {
+    const startedAt = new Date().toISOString();
     const { context, page } = await newSession(1024, 768);
     // The tablet does not hear of the sign-off below (its pulls of the case find nothing new),
     // so it takes the next answer and the server is the one to refuse it. Left to chance, a
@@ -137,7 +138,27 @@ describe('the chairside island for gloved hands', () => {
     await setUpDistal36(page);
     const d = new Driver(page);
     await d.answer('seat', 'Seats and holds');
-    await page.locator('[data-testid="sync-state"][data-state="synced"]').waitFor({ timeout: 30_000 });
+    // Wait until the server holds the seat check itself (the badge may still say "synced" from the set-up).
+    const seatStored = knexFactory(sqliteOptions(server.dbFile));
+    try {
+      const deadline = Date.now() + 30_000;
+      for (;;) {
+        const n = await seatStored('events')
+          .join('users', 'users.id', 'events.user_id')
+          .where('users.email', DEMO.priya)
+          .where('events.type', 'seat.checked')
+          .where('events.received_at', '>=', startedAt)
+          .count<{ n: number }[]>({ n: '*' });
+        if (Number(n[0]?.n ?? 0) > 0) break;
+        if (Date.now() > deadline) throw new Error('the seat check never reached the server');
+        await new Promise((r) => setTimeout(r, 200));
+      }
+    } finally {
+      await seatStored.destroy();
+    }
+    // The next answer is tapped offline, so no pull can tell the tablet of the sign-off first.
+    await context.setOffline(true);
+    await d.ruler('taper', 19.5);
     // Meanwhile the case is signed off on the server: it takes no more answers.
     const k = knexFactory(sqliteOptions(server.dbFile));
     try {
@@ -150,14 +171,16 @@ describe('the chairside island for gloved hands', () => {
     } finally {
       await k.destroy();
     }
-    await d.ruler('taper', 19.5);
+    await context.setOffline(false);
+    await page.getByRole('button', { name: 'Sync now' }).click();
     const refused = page.getByTestId('rejected');
     await refused.waitFor({ timeout: 30_000 });
     await expect(refused.textContent()).resolves.toContain('signed off');
     await expect(refused.textContent()).resolves.toContain('Taper check');
     expect(await undersized(page)).toEqual([]);
     expect(await seriousViolations(page)).toEqual([]);
-    await expect(refused.getByRole('listitem').count()).resolves.toBe(1);
+    const items = await refused.getByRole('listitem').allTextContents();
+    expect(items, items.join(' / ')).toHaveLength(1);
     await refused.getByRole('button', { name: 'Dismiss' }).click();
     await refused.waitFor({ state: 'detached' });
     await context.close();
