@@ -141,6 +141,15 @@ const conflict = (error: string, code: string, extra: Record<string, unknown> = 
   body: { error, code, ...extra },
 });
 
+/** 409: the case is no longer in the state the attending saw. */
+function stateChanged(state: CaseState, expected: CaseState): Answer {
+  return conflict(
+    `This case is now "${CASE_STATE_LABELS[state]}", not "${CASE_STATE_LABELS[expected]}": it changed since you opened it. Reload it and decide again.`,
+    'state-changed',
+    { state },
+  );
+}
+
 /**
  * Signs off a checkpoint or the whole case (POST /api/cases/{caseId}/signoffs). Answers 201
  * with the stored sign-off; 409 when the case is no longer in `expectedState`, when the
@@ -163,12 +172,7 @@ export async function signOff(
     // Read inside the transaction: two attendings deciding at once are serialised here.
     const row = (await trx('cases').where({ id: caseId }).first()) as CaseRow;
     const state = stateOf(row);
-    if (state !== input.expectedState)
-      return conflict(
-        `This case is now "${CASE_STATE_LABELS[state]}", not "${CASE_STATE_LABELS[input.expectedState]}": it changed since you opened it. Reload it and decide again.`,
-        'state-changed',
-        { state },
-      );
+    if (state !== input.expectedState) return stateChanged(state, input.expectedState);
     const action: CaseAction =
       input.checkpoint !== 'final' ? 'checkpoint' : input.decision === 'approve' ? 'approve' : 'return';
     const moved = next(state, action);
@@ -249,11 +253,7 @@ export async function reopen(
     const row = (await trx('cases').where({ id: caseId }).first()) as CaseRow;
     const state = stateOf(row);
     if (input.expectedState !== undefined && state !== input.expectedState)
-      return conflict(
-        `This case is now "${CASE_STATE_LABELS[state]}", not "${CASE_STATE_LABELS[input.expectedState]}": it changed since you opened it. Reload it and decide again.`,
-        'state-changed',
-        { state },
-      );
+      return stateChanged(state, input.expectedState);
     const moved = next(state, 'reopen');
     if (isRefusal(moved)) return conflict(`${capital(moved.refused)}.`, 'lifecycle', { state });
     const approval = await trx('signoffs')
