@@ -2,7 +2,9 @@
  * The contract: everything that crosses the wire or a layer, declared once and imported by
  * the island, the endpoints, the services and the tests. Types and constants only, no zod and
  * no I/O, so the chairside island may import it (zod bodies for forms live beside the routes
- * that read them). docs/sync-contract.md is its written form.
+ * that read them). docs/sync-contract.md is its written form. The director's forms and the case
+ * list's query are zod schemas the admin islands share with the routes: they live in
+ * contract-accounts.ts and contract-case-list.ts, and only their types are re-exported here.
  */
 import type {
   CanalRatings,
@@ -216,3 +218,28 @@ export interface ErrorAnswer {
   code?: string;
   field?: string;
 }
+
+// --- accounts, cohorts, assignments and the case list (docs/accounts.md) -----------------
+// The zod schemas are in contract-accounts.ts and contract-case-list.ts; types only here.
+
+export type {
+  AccountSummary,
+  AccountsAnswer,
+  ActiveAnswer,
+  AssignmentsAnswer,
+  AssignmentsChange,
+  CohortAnswer,
+  CohortCreate,
+  CohortMove,
+  CohortMoveAnswer,
+  CohortsAnswer,
+  CohortSummary,
+  CohortUpdate,
+  HoldsAnswer,
+  PersonRef,
+  RoleAnswer,
+  RoleChange,
+  StudentToReassign,
+  UserAction,
+} from './contract-accounts';
+export type { CaseListAnswer, CaseListQuery, CaseListState, ToothGroupName } from './contract-case-list';

@@ -27,7 +27,7 @@ interface Ids {
   canalId: string;
 }
 interface Row {
-  method: 'GET' | 'POST';
+  method: 'GET' | 'POST' | 'PUT' | 'PATCH';
   path: (ids: Ids) => string;
   body?: unknown;
   /** The status each actor gets. */
@@ -68,7 +68,27 @@ const MATRIX_ID = {
   reopen: '00000000-0000-4000-8000-00000000a11d',
   comments: '00000000-0000-4000-8000-00000000a11e',
   mail: '00000000-0000-4000-8000-00000000a11f',
+  deactivate: '00000000-0000-4000-8000-00000000a120',
+  reactivate: '00000000-0000-4000-8000-00000000a121',
+  role: '00000000-0000-4000-8000-00000000a122',
+  holds: '00000000-0000-4000-8000-00000000a123',
+  cohort: '00000000-0000-4000-8000-00000000a124',
+  assignments: '00000000-0000-4000-8000-00000000a125',
+  cohortCreate: '00000000-0000-4000-8000-00000000a126',
+  cohortUpdate: '00000000-0000-4000-8000-00000000a127',
 };
+
+/** Director-only routes: `status` for the director, 403 for every other role, 401 anonymous. */
+const directorOnly = (status: number, anonymous = 401): Record<Actor, number> => ({
+  anonymous,
+  owner: 403,
+  otherStudent: 403,
+  assigned: 403,
+  unassigned: 403,
+  director: status,
+});
+// No account or cohort has this id: the director's writes reach the service and change nothing (404).
+const NO_ROW = 999999;
 
 /** One row per route pattern (as Astro names it). */
 const MATRIX: Record<string, Row[]> = {
@@ -81,6 +101,15 @@ const MATRIX: Record<string, Row[]> = {
       path: () => '/admin',
       variants: true,
       expect: { anonymous: 302, owner: 403, otherStudent: 403, assigned: 403, unassigned: 403, director: 200 },
+    },
+  ],
+  // Attendings and directors; students have their home page.
+  '/cases': [
+    {
+      method: 'GET',
+      path: () => '/cases',
+      variants: true,
+      expect: { anonymous: 302, owner: 403, otherStudent: 403, assigned: 200, unassigned: 200, director: 200 },
     },
   ],
   '/cases/[caseId]': [{ method: 'GET', path: (i) => `/cases/${i.caseId}`, expect: readers(302), variants: true }],
@@ -98,7 +127,12 @@ const MATRIX: Record<string, Row[]> = {
   '/api/canals/[canalId]': [
     { method: 'GET', path: (i) => `/api/canals/${i.canalId}`, expect: readers(401), variants: true },
   ],
-  '/api/cases': [{ method: 'GET', path: () => '/api/cases', expect: signedIn(200, 401) }],
+  '/api/cases': [
+    { method: 'GET', path: () => '/api/cases', expect: signedIn(200, 401) },
+    // The case list's filters: every reader may filter (within what they may read); a bad one is 400.
+    { method: 'GET', path: () => '/api/cases?state=submitted&limit=5', expect: signedIn(200, 401) },
+    { method: 'GET', path: () => '/api/cases?state=bogus', expect: signedIn(400, 401) },
+  ],
   '/api/cases/[caseId]': [
     { method: 'GET', path: (i) => `/api/cases/${i.caseId}`, expect: readers(401), variants: true },
   ],
@@ -146,6 +180,76 @@ const MATRIX: Record<string, Row[]> = {
       path: () => '/api/me/mail',
       body: { id: MATRIX_ID.mail, digest: 'yes' },
       expect: signedIn(400, 401),
+    },
+  ],
+  '/api/users': [{ method: 'GET', path: () => '/api/users', variants: true, expect: directorOnly(200) }],
+  '/api/users/[userId]/deactivate': [
+    {
+      method: 'POST',
+      path: () => `/api/users/${NO_ROW}/deactivate`,
+      body: { id: MATRIX_ID.deactivate },
+      variants: true,
+      expect: directorOnly(404),
+    },
+  ],
+  '/api/users/[userId]/reactivate': [
+    {
+      method: 'POST',
+      path: () => `/api/users/${NO_ROW}/reactivate`,
+      body: { id: MATRIX_ID.reactivate },
+      expect: directorOnly(404),
+    },
+  ],
+  '/api/users/[userId]/role': [
+    {
+      method: 'POST',
+      path: () => `/api/users/${NO_ROW}/role`,
+      body: { id: MATRIX_ID.role, role: 'attending' },
+      variants: true,
+      expect: directorOnly(404),
+    },
+  ],
+  '/api/users/[userId]/holds/lift': [
+    {
+      method: 'POST',
+      path: () => `/api/users/${NO_ROW}/holds/lift`,
+      body: { id: MATRIX_ID.holds },
+      expect: directorOnly(404),
+    },
+  ],
+  '/api/users/[userId]/cohort': [
+    {
+      method: 'POST',
+      path: () => `/api/users/${NO_ROW}/cohort`,
+      body: { id: MATRIX_ID.cohort, cohortId: null },
+      expect: directorOnly(404),
+    },
+  ],
+  '/api/users/[userId]/assignments': [
+    { method: 'GET', path: () => `/api/users/${NO_ROW}/assignments`, expect: directorOnly(404) },
+    {
+      method: 'PUT',
+      path: () => `/api/users/${NO_ROW}/assignments`,
+      body: { id: MATRIX_ID.assignments, attendingIds: [] },
+      expect: directorOnly(404),
+    },
+  ],
+  '/api/cohorts': [
+    { method: 'GET', path: () => '/api/cohorts', variants: true, expect: directorOnly(200) },
+    // An empty name: refused before anything is stored.
+    {
+      method: 'POST',
+      path: () => '/api/cohorts',
+      body: { id: MATRIX_ID.cohortCreate, name: ' ' },
+      expect: directorOnly(400),
+    },
+  ],
+  '/api/cohorts/[cohortId]': [
+    {
+      method: 'PATCH',
+      path: () => `/api/cohorts/${NO_ROW}`,
+      body: { id: MATRIX_ID.cohortUpdate, archived: true },
+      expect: directorOnly(404),
     },
   ],
   '/api/sync': [

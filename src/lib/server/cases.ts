@@ -10,11 +10,18 @@ import { signoffsOf } from './reviews';
 
 export type { CaseSummary } from '../contract';
 
-/** The cases `user` may read, newest first, with their canals and finding counts. */
+/**
+ * The cases `user` may read, newest first, with their canals and finding counts. `refine` adds
+ * to the query (more conditions, a tie-break order, a limit): the case list's filters.
+ */
 export async function listCases(
   k: Knex,
   user: SessionUser,
-  filter: { reviewStatus?: CaseRow['review_status'][]; studentId?: number } = {},
+  filter: {
+    reviewStatus?: CaseRow['review_status'][];
+    studentId?: number;
+    refine?: (q: Knex.QueryBuilder) => void;
+  } = {},
 ): Promise<CaseSummary[]> {
   const q = readableCases(k, user)
     .join('users', 'users.id', 'cases.student_id')
@@ -24,6 +31,7 @@ export async function listCases(
     .orderBy('cases.opened_at', 'desc');
   if (filter.reviewStatus) q.whereIn('cases.review_status', filter.reviewStatus);
   if (filter.studentId) q.where('cases.student_id', filter.studentId);
+  filter.refine?.(q);
   const rows: (CaseRow & { student_name: string })[] = await q;
   const canalRows = rows.length
     ? await k('canals')

@@ -23,6 +23,18 @@ export const PUBLIC_ROUTES: ReadonlySet<string> = new Set([
 export const ROLE_ROUTES: Readonly<Record<string, readonly Role[]>> = {
   '/admin': ['director'],
   '/api/sync': ['student'],
+  // Accounts, cohorts and assignments (docs/accounts.md).
+  '/api/users': ['director'],
+  '/api/users/[userId]/deactivate': ['director'],
+  '/api/users/[userId]/reactivate': ['director'],
+  '/api/users/[userId]/role': ['director'],
+  '/api/users/[userId]/holds/lift': ['director'],
+  '/api/users/[userId]/cohort': ['director'],
+  '/api/users/[userId]/assignments': ['director'],
+  '/api/cohorts': ['director'],
+  '/api/cohorts/[cohortId]': ['director'],
+  // The case list: a student's own cases are on their home page.
+  '/cases': ['attending', 'director'],
 };
 
 /** The roles a route is limited to, or null when any signed-in user may reach it. */

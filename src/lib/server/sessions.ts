@@ -13,7 +13,13 @@ import type { UserRow } from './users';
 export const SESSION_MAX_AGE_S = 12 * 60 * 60;
 
 export type EndedBy =
-  'reactivated' | 'sign-out' | 'sign-out-everywhere' | 'deactivated' | 'password-changed' | 'password-reset';
+  | 'reactivated'
+  | 'sign-out'
+  | 'sign-out-everywhere'
+  | 'deactivated'
+  | 'password-changed'
+  | 'password-reset'
+  | 'role-changed';
 
 /** Opens a session for the user and answers its id. */
 export async function createSession(k: Knex, userId: number, now = new Date()): Promise<string> {

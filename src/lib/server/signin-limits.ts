@@ -75,3 +75,23 @@ export async function liftHolds(k: Knex, email: string): Promise<number> {
   const pattern = prefix.replace(/[\\%_]/g, (c) => `\\${c}`) + '%';
   return k(TABLE).whereRaw("key LIKE ? ESCAPE '\\'", [pattern]).delete();
 }
+
+/**
+ * The accounts held now, from any address, each with when its latest hold ends (epoch ms), by
+ * e-mail: for the director's accounts screen. A hold is a pair that has used up its failures.
+ */
+export async function heldAccounts(k: Knex, now = Date.now()): Promise<Map<string, number>> {
+  const rows = await k(TABLE)
+    .where('key', 'like', 'pair:%')
+    .where('points', '>=', PAIR_FAILURES)
+    .where((q) => q.whereNull('expire').orWhere('expire', '>', now))
+    .select('key', 'expire');
+  const held = new Map<string, number>();
+  for (const r of rows) {
+    // pair:{email}|{address}: the address never holds a '|', so the last one ends the e-mail.
+    const email = r.key.slice('pair:'.length, r.key.lastIndexOf('|'));
+    const until = r.expire ?? now + WINDOW_S * 1000;
+    held.set(email, Math.max(held.get(email) ?? 0, until));
+  }
+  return held;
+}

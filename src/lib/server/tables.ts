@@ -14,6 +14,8 @@ export interface CohortRow {
   graduation_year: number | null;
   demo: Bool;
   created_at: string;
+  /** Set when a director archived the cohort: hidden from pickers, kept in every record. */
+  archived_at: string | null;
 }
 
 export interface UserRow {
