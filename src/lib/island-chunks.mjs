@@ -8,26 +8,30 @@
 // chairside's first paint grew by 1.1 KB (0.5 KB for the rules core alone) — two files pack
 // worse than one. Hence:
 // - `ownCopies` gives the calculators island its own copy of every module of ours it imports
-//   (the same source file under another module id, so nothing is written twice by hand);
+//   (the same source file under another module id, so nothing is written twice by hand), and
+//   the director's islands (components/admin/, which import the contract and the words on
+//   screen as the chairside does) theirs;
 // - `reactChunk` keeps React's own modules (react, react/jsx-runtime) in one chunk, which both
 //   islands and the React renderer load anyway.
 // The calculators browser test checks that the two pages share no script but React's.
 import { fileURLToPath } from 'node:url';
 
 const SRC = fileURLToPath(new URL('..', import.meta.url));
-const COPY = '?calculators-copy';
 
 /**
  * A Vite plugin: in the browser build, a module of `src/` imported from `islandDir` (or from
  * one of its copies) is loaded as a copy of its own. Modules in `islandDir` itself and
- * packages are left alone.
+ * packages are left alone. One plugin per island, each with its own `copy` suffix, so two
+ * islands' copies are never one module either.
  * @param {string} islandDir folder of the island, relative to src/
+ * @param {string} copy the suffix that marks this island's copies
  * @returns {import('vite').Plugin}
  */
-export function ownCopies(islandDir = 'components/calculators/') {
+export function ownCopies(islandDir = 'components/calculators/', copy = '?calculators-copy') {
   const island = SRC + islandDir;
+  const COPY = copy;
   return {
-    name: 'coneline:own-copies',
+    name: `coneline:own-copies${copy}`,
     enforce: 'pre',
     apply: 'build',
     async resolveId(source, importer, options) {

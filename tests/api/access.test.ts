@@ -103,6 +103,8 @@ const MATRIX: Record<string, Row[]> = {
       expect: { anonymous: 302, owner: 403, otherStudent: 403, assigned: 403, unassigned: 403, director: 200 },
     },
   ],
+  '/admin/accounts': [{ method: 'GET', path: () => '/admin/accounts', variants: true, expect: directorOnly(200, 302) }],
+  '/admin/cohorts': [{ method: 'GET', path: () => '/admin/cohorts', variants: true, expect: directorOnly(200, 302) }],
   // Attendings and directors; students have their home page.
   '/cases': [
     {

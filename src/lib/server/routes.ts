@@ -24,6 +24,8 @@ export const ROLE_ROUTES: Readonly<Record<string, readonly Role[]>> = {
   '/admin': ['director'],
   '/api/sync': ['student'],
   // Accounts, cohorts and assignments (docs/accounts.md).
+  '/admin/accounts': ['director'],
+  '/admin/cohorts': ['director'],
   '/api/users': ['director'],
   '/api/users/[userId]/deactivate': ['director'],
   '/api/users/[userId]/reactivate': ['director'],
