@@ -19,9 +19,9 @@ const id: Record<string, number> = {};
 
 beforeAll(async () => {
   server = await startServer({ env: { CLINIC_TIME_ZONE: ZONE } });
-  [ingrid, helen, mira] = await Promise.all(
-    [DEMO.ingrid, DEMO.helen, DEMO.mira].map((e) => apiSignIn(server.baseUrl, e, DEMO.password)),
-  );
+  ingrid = await apiSignIn(server.baseUrl, DEMO.ingrid, DEMO.password);
+  helen = await apiSignIn(server.baseUrl, DEMO.helen, DEMO.password);
+  mira = await apiSignIn(server.baseUrl, DEMO.mira, DEMO.password);
   for (const who of ['mira', 'tomas', 'priya', 'helen', 'samuel'] as const) id[who] = await idOf(server, DEMO[who]);
   all = (await list(ingrid, '')).cases;
 });
