@@ -217,6 +217,27 @@ describe('the migrations', () => {
     expect(await k('cases').where({ id: caseId })).toHaveLength(1);
   });
 
+  it('let a cohort be archived and index the case list, and roll back keeping every cohort and its students', async () => {
+    await k.migrate.latest({ migrationSource: bundledMigrations });
+    const [cohortId] = (
+      await k('cohorts').insert({ name: 'Class of 2031', archived_at: '2026-12-05T10:00:00.000Z' }).returning('id')
+    ).map((r) => (r as { id: number }).id);
+    await k('users').insert({ email: 's@example.org', name: 'S', role: 'student', cohort_id: cohortId });
+    const indexes = async () =>
+      (
+        (await k.raw("select name from sqlite_master where type = 'index' and tbl_name = 'cases'")) as {
+          name: string;
+        }[]
+      ).map((r) => r.name);
+    expect(await indexes()).toContain('cases_opened_at_id_index');
+    await undoThrough(k, '20261205000500_cohort_archive.ts');
+    expect(await indexes()).not.toContain('cases_opened_at_id_index');
+    expect(await k('cohorts').first()).not.toHaveProperty('archived_at');
+    expect(await k('cohorts').first()).toMatchObject({ id: cohortId, name: 'Class of 2031' });
+    // Rebuilding cohorts must not fire users' ON DELETE SET NULL.
+    expect(await k('users').where({ email: 's@example.org' }).first()).toMatchObject({ cohort_id: cohortId });
+  });
+
   it('are recorded under the same names by the Knex CLI and by the server', async () => {
     const file = join(dir, 'cli.sqlite');
     execFileSync(
