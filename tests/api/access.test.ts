@@ -133,6 +133,14 @@ const MATRIX: Record<string, Row[]> = {
     },
   ],
   // The review queue: attendings (their own students' cases) and the director; students 403.
+  '/review': [
+    {
+      method: 'GET',
+      path: () => '/review',
+      variants: true,
+      expect: { anonymous: 302, owner: 403, otherStudent: 403, assigned: 200, unassigned: 200, director: 200 },
+    },
+  ],
   '/api/review/queue': [
     {
       method: 'GET',

@@ -23,6 +23,7 @@ export const PUBLIC_ROUTES: ReadonlySet<string> = new Set([
 export const ROLE_ROUTES: Readonly<Record<string, readonly Role[]>> = {
   '/admin': ['director'],
   '/api/sync': ['student'],
+  '/review': ['attending', 'director'],
   '/api/review/queue': ['attending', 'director'],
 };
 
