@@ -7,39 +7,39 @@
 // strip moved about 7 KB (gzipped) out of the chairside's chunk into shared chunks, and the
 // chairside's first paint grew by 1.1 KB (0.5 KB for the rules core alone) — two files pack
 // worse than one. Hence:
-// - `ownCopies` gives the calculators island its own copy of every module of ours it imports
-//   (the same source file under another module id, so nothing is written twice by hand), and
-//   the director's islands (components/admin/, which import the contract and the words on
-//   screen as the chairside does) theirs;
+// - `ownCopies` gives the calculators island, the review queue's island and the director's
+//   islands (accounts, cohorts) their own copy of every module of ours they import (the same
+//   source file under another module id, so nothing is written twice by hand); they may share
+//   those copies with each other;
 // - `reactChunk` keeps React's own modules (react, react/jsx-runtime) in one chunk, which both
 //   islands and the React renderer load anyway.
 // The calculators browser test checks that the two pages share no script but React's.
 import { fileURLToPath } from 'node:url';
 
 const SRC = fileURLToPath(new URL('..', import.meta.url));
+const COPY = '?island-copy';
 
 /**
- * A Vite plugin: in the browser build, a module of `src/` imported from `islandDir` (or from
- * one of its copies) is loaded as a copy of its own. Modules in `islandDir` itself and
- * packages are left alone. One plugin per island, each with its own `copy` suffix, so two
- * islands' copies are never one module either.
- * @param {string} islandDir folder of the island, relative to src/
- * @param {string} copy the suffix that marks this island's copies
+ * A Vite plugin: in the browser build, a module of `src/` imported from one of `islandDirs`
+ * (or from one of its copies) is loaded as a copy of its own. Modules in those folders
+ * themselves and packages are left alone.
+ * @param {string[]} islandDirs folders of the islands, relative to src/
  * @returns {import('vite').Plugin}
  */
-export function ownCopies(islandDir = 'components/calculators/', copy = '?calculators-copy') {
-  const island = SRC + islandDir;
-  const COPY = copy;
+export function ownCopies(islandDirs = ['components/calculators/', 'components/review/queue/', 'components/admin/']) {
+  const islands = islandDirs.map((d) => SRC + d);
+  /** @param {string} id */
+  const inIsland = (id) => islands.some((dir) => id.startsWith(dir));
   return {
-    name: `coneline:own-copies${copy}`,
+    name: 'coneline:own-copies',
     enforce: 'pre',
     apply: 'build',
     async resolveId(source, importer, options) {
       if (!importer || options.ssr || this.environment?.config.consumer === 'server') return null;
-      if (!importer.startsWith(island) && !importer.endsWith(COPY)) return null;
+      if (!inIsland(importer) && !importer.endsWith(COPY)) return null;
       const resolved = await this.resolve(source, importer, { ...options, skipSelf: true });
       if (!resolved || resolved.external || resolved.id.includes('?')) return resolved;
-      if (!resolved.id.startsWith(SRC) || resolved.id.startsWith(island)) return resolved;
+      if (!resolved.id.startsWith(SRC) || inIsland(resolved.id)) return resolved;
       return { ...resolved, id: resolved.id + COPY };
     },
   };

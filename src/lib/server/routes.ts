@@ -37,6 +37,8 @@ export const ROLE_ROUTES: Readonly<Record<string, readonly Role[]>> = {
   '/api/cohorts/[cohortId]': ['director'],
   // The case list: a student's own cases are on their home page.
   '/cases': ['attending', 'director'],
+  '/review': ['attending', 'director'],
+  '/api/review/queue': ['attending', 'director'],
 };
 
 /** The roles a route is limited to, or null when any signed-in user may reach it. */
