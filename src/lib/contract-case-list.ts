@@ -5,11 +5,10 @@
  * ("GET /api/cases") is the written form.
  */
 import { z } from 'zod';
-import type { CaseSummary } from './contract';
+import { TOOTH_GROUPS, type CaseSummary } from './contract';
 
-/** Tooth groups by FDI tooth number: anterior x1–x3, premolar x4–x5, molar x6–x8 (primary x4–x5 are molars). */
-export const TOOTH_GROUPS = ['anterior', 'premolar', 'molar'] as const;
-export type ToothGroupName = (typeof TOOTH_GROUPS)[number];
+// The tooth groups are the contract's (the review queue filters by the same ones).
+export { TOOTH_GROUPS };
 
 /** The case states the list filters by (discarded cases are in no list). */
 export const CASE_LIST_STATES = ['open', 'submitted', 'returned', 'approved'] as const;

@@ -322,4 +322,4 @@ export type {
   StudentToReassign,
   UserAction,
 } from './contract-accounts';
-export type { CaseListAnswer, CaseListQuery, CaseListState, ToothGroupName } from './contract-case-list';
+export type { CaseListAnswer, CaseListQuery, CaseListState } from './contract-case-list';

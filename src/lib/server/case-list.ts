@@ -13,26 +13,17 @@ import {
   queryObject,
   TOOTH_GROUPS,
 } from '../contract-case-list';
-import { formatZodError, isValidFdi, toothGroup } from '../rules/index';
+import { formatZodError } from '../rules/index';
 import { fieldOf } from './api-body';
 import { listCases } from './cases';
+import { teethOf } from './review-queue';
 import { config } from './config';
 import { db } from './db';
 
-/** Which of TOOTH_GROUPS an FDI tooth is in: anterior x1–x3, premolar x4–x5, molar the rest (primary x4–x5 too). */
-export function toothGroupOf(fdi: number): ToothGroupName {
-  const g = toothGroup(fdi);
-  return g.anterior ? 'anterior' : g.kind === 'premolar' ? 'premolar' : 'molar';
-}
-
-/** Every FDI number of each tooth group, for the query. */
-const TEETH_BY_GROUP: Readonly<Record<ToothGroupName, number[]>> = (() => {
-  const all = Array.from({ length: 75 }, (_, i) => 11 + i).filter(isValidFdi);
-  return Object.fromEntries(TOOTH_GROUPS.map((g) => [g, all.filter((n) => toothGroupOf(n) === g)])) as Record<
-    ToothGroupName,
-    number[]
-  >;
-})();
+/** Every FDI number of each tooth group, for the query (the review queue's grouping, from the rules core). */
+const TEETH_BY_GROUP: Readonly<Record<ToothGroupName, number[]>> = Object.fromEntries(
+  TOOTH_GROUPS.map((g) => [g, teethOf(g)]),
+) as Record<ToothGroupName, number[]>;
 
 /** The offset of `timeZone` from UTC at `instant`, in ms. */
 function zoneOffset(instant: number, timeZone: string): number {
