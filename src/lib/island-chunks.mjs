@@ -7,27 +7,29 @@
 // strip moved about 7 KB (gzipped) out of the chairside's chunk into shared chunks, and the
 // chairside's first paint grew by 1.1 KB (0.5 KB for the rules core alone) — two files pack
 // worse than one. Hence:
-// - `ownCopies` gives the calculators island its own copy of every module of ours it imports
-//   (the same source file under another module id, so nothing is written twice by hand);
+// - `ownCopies` gives the calculators island, and the case page's review islands, each their
+//   own copy of every module of ours they import (the same source file under another module
+//   id, so nothing is written twice by hand);
 // - `reactChunk` keeps React's own modules (react, react/jsx-runtime) in one chunk, which both
 //   islands and the React renderer load anyway.
 // The calculators browser test checks that the two pages share no script but React's.
 import { fileURLToPath } from 'node:url';
 
 const SRC = fileURLToPath(new URL('..', import.meta.url));
-const COPY = '?calculators-copy';
 
 /**
  * A Vite plugin: in the browser build, a module of `src/` imported from `islandDir` (or from
  * one of its copies) is loaded as a copy of its own. Modules in `islandDir` itself and
  * packages are left alone.
  * @param {string} islandDir folder of the island, relative to src/
+ * @param {string} tag names the copies (`?tag-copy`), one set per island folder
  * @returns {import('vite').Plugin}
  */
-export function ownCopies(islandDir = 'components/calculators/') {
+export function ownCopies(islandDir = 'components/calculators/', tag = 'calculators') {
   const island = SRC + islandDir;
+  const COPY = `?${tag}-copy`;
   return {
-    name: 'coneline:own-copies',
+    name: `coneline:own-copies-${tag}`,
     enforce: 'pre',
     apply: 'build',
     async resolveId(source, importer, options) {
