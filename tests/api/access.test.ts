@@ -68,18 +68,25 @@ const MATRIX_ID = {
   reopen: '00000000-0000-4000-8000-00000000a11d',
   comments: '00000000-0000-4000-8000-00000000a11e',
   mail: '00000000-0000-4000-8000-00000000a11f',
-  deactivate: '00000000-0000-4000-8000-00000000a120',
-  reactivate: '00000000-0000-4000-8000-00000000a121',
-  role: '00000000-0000-4000-8000-00000000a122',
-  holds: '00000000-0000-4000-8000-00000000a123',
-  cohort: '00000000-0000-4000-8000-00000000a124',
-  assignments: '00000000-0000-4000-8000-00000000a125',
-  cohortCreate: '00000000-0000-4000-8000-00000000a126',
-  cohortUpdate: '00000000-0000-4000-8000-00000000a127',
+  invite: '00000000-0000-4000-8000-00000000a120',
+  inviteCsv: '00000000-0000-4000-8000-00000000a121',
+  resend: '00000000-0000-4000-8000-00000000a122',
+  revoke: '00000000-0000-4000-8000-00000000a123',
+  accept: '00000000-0000-4000-8000-00000000a124',
+  resetRequest: '00000000-0000-4000-8000-00000000a125',
+  resetConfirm: '00000000-0000-4000-8000-00000000a126',
+  userReset: '00000000-0000-4000-8000-00000000a127',
+  deactivate: '00000000-0000-4000-8000-00000000a128',
+  reactivate: '00000000-0000-4000-8000-00000000a129',
+  role: '00000000-0000-4000-8000-00000000a12a',
+  holds: '00000000-0000-4000-8000-00000000a12b',
+  cohort: '00000000-0000-4000-8000-00000000a12c',
+  assignments: '00000000-0000-4000-8000-00000000a12d',
+  cohortCreate: '00000000-0000-4000-8000-00000000a12e',
+  cohortUpdate: '00000000-0000-4000-8000-00000000a12f',
 };
-
-/** Director-only routes: `status` for the director, 403 for every other role, 401 anonymous. */
-const directorOnly = (status: number, anonymous = 401): Record<Actor, number> => ({
+/** Directors only: 403 for every other role, `status` for the director. */
+const directors = (status: number, anonymous: number): Record<Actor, number> => ({
   anonymous,
   owner: 403,
   otherStudent: 403,
@@ -87,6 +94,10 @@ const directorOnly = (status: number, anonymous = 401): Record<Actor, number> =>
   unassigned: 403,
   director: status,
 });
+/** A token no link was ever made with: the public link routes answer 404 to everyone. */
+const NO_TOKEN = 'A'.repeat(43);
+const MATRIX_PASSWORD = 'access matrix password 2026';
+
 // No account or cohort has this id: the director's writes reach the service and change nothing (404).
 const NO_ROW = 999999;
 
@@ -103,8 +114,8 @@ const MATRIX: Record<string, Row[]> = {
       expect: { anonymous: 302, owner: 403, otherStudent: 403, assigned: 403, unassigned: 403, director: 200 },
     },
   ],
-  '/admin/accounts': [{ method: 'GET', path: () => '/admin/accounts', variants: true, expect: directorOnly(200, 302) }],
-  '/admin/cohorts': [{ method: 'GET', path: () => '/admin/cohorts', variants: true, expect: directorOnly(200, 302) }],
+  '/admin/accounts': [{ method: 'GET', path: () => '/admin/accounts', variants: true, expect: directors(200, 302) }],
+  '/admin/cohorts': [{ method: 'GET', path: () => '/admin/cohorts', variants: true, expect: directors(200, 302) }],
   // Attendings and directors; students have their home page.
   '/cases': [
     {
@@ -114,6 +125,13 @@ const MATRIX: Record<string, Row[]> = {
       expect: { anonymous: 302, owner: 403, otherStudent: 403, assigned: 200, unassigned: 200, director: 200 },
     },
   ],
+  '/admin/invitations': [
+    { method: 'GET', path: () => '/admin/invitations', variants: true, expect: directors(200, 302) },
+  ],
+  // Public account pages (docs/accounts.md): open to anyone; an unknown link is 404.
+  '/forgot-password': [{ method: 'GET', path: () => '/forgot-password', expect: signedIn(200, 200) }],
+  '/invite/[token]': [{ method: 'GET', path: () => `/invite/${NO_TOKEN}`, expect: signedIn(404, 404) }],
+  '/reset-password/[token]': [{ method: 'GET', path: () => `/reset-password/${NO_TOKEN}`, expect: signedIn(404, 404) }],
   '/cases/[caseId]': [{ method: 'GET', path: (i) => `/cases/${i.caseId}`, expect: readers(302), variants: true }],
   // Static and prerendered like the chairside shell, with no data in it: open to anyone.
   '/calculators': [{ method: 'GET', path: () => '/calculators', expect: signedIn(200, 200) }],
@@ -191,6 +209,77 @@ const MATRIX: Record<string, Row[]> = {
       expect: { anonymous: 401, owner: 403, otherStudent: 403, assigned: 400, unassigned: 400, director: 400 },
     },
   ],
+  // Invitations (docs/accounts.md): bodies that cannot pass, or name nothing; nothing changes.
+  '/api/invitations': [
+    { method: 'GET', path: () => '/api/invitations', variants: true, expect: directors(200, 401) },
+    {
+      method: 'POST',
+      path: () => '/api/invitations',
+      body: { id: MATRIX_ID.invite, email: 'not an address', role: 'student' },
+      variants: true,
+      expect: directors(400, 401),
+    },
+  ],
+  '/api/invitations/csv': [
+    {
+      method: 'POST',
+      path: () => '/api/invitations/csv',
+      body: { id: MATRIX_ID.inviteCsv, csv: 'name,email\n', role: 'student' },
+      expect: directors(400, 401),
+    },
+  ],
+  '/api/invitations/[invitationId]/resend': [
+    {
+      method: 'POST',
+      path: () => '/api/invitations/99999/resend',
+      body: { id: MATRIX_ID.resend },
+      variants: true,
+      expect: directors(404, 401),
+    },
+  ],
+  '/api/invitations/[invitationId]/revoke': [
+    {
+      method: 'POST',
+      path: () => '/api/invitations/99999/revoke',
+      body: { id: MATRIX_ID.revoke },
+      variants: true,
+      expect: directors(404, 401),
+    },
+  ],
+  '/api/invitations/[token]/accept': [
+    {
+      method: 'POST',
+      path: () => `/api/invitations/${NO_TOKEN}/accept`,
+      body: { id: MATRIX_ID.accept, name: 'Access Matrix', password: MATRIX_PASSWORD },
+      expect: signedIn(404, 404),
+    },
+  ],
+  // Password resets: the same 202 for an address with no account, which sends nothing.
+  '/api/password-resets': [
+    {
+      method: 'POST',
+      path: () => '/api/password-resets',
+      body: { id: MATRIX_ID.resetRequest, email: 'nobody.at.all@larkfield.example' },
+      expect: signedIn(202, 202),
+    },
+  ],
+  '/api/password-resets/[token]': [
+    {
+      method: 'POST',
+      path: () => `/api/password-resets/${NO_TOKEN}`,
+      body: { id: MATRIX_ID.resetConfirm, password: MATRIX_PASSWORD },
+      expect: signedIn(404, 404),
+    },
+  ],
+  '/api/users/[userId]/password-reset': [
+    {
+      method: 'POST',
+      path: () => '/api/users/99999/password-reset',
+      body: { id: MATRIX_ID.userReset },
+      variants: true,
+      expect: directors(404, 401),
+    },
+  ],
   '/api/health': [{ method: 'GET', path: () => '/api/health', expect: signedIn(200, 200) }],
   '/api/me': [{ method: 'GET', path: () => '/api/me', expect: signedIn(200, 401) }],
   // A body that cannot pass validation: the matrix must change nothing.
@@ -207,14 +296,14 @@ const MATRIX: Record<string, Row[]> = {
       expect: signedIn(400, 401),
     },
   ],
-  '/api/users': [{ method: 'GET', path: () => '/api/users', variants: true, expect: directorOnly(200) }],
+  '/api/users': [{ method: 'GET', path: () => '/api/users', variants: true, expect: directors(200, 401) }],
   '/api/users/[userId]/deactivate': [
     {
       method: 'POST',
       path: () => `/api/users/${NO_ROW}/deactivate`,
       body: { id: MATRIX_ID.deactivate },
       variants: true,
-      expect: directorOnly(404),
+      expect: directors(404, 401),
     },
   ],
   '/api/users/[userId]/reactivate': [
@@ -222,7 +311,7 @@ const MATRIX: Record<string, Row[]> = {
       method: 'POST',
       path: () => `/api/users/${NO_ROW}/reactivate`,
       body: { id: MATRIX_ID.reactivate },
-      expect: directorOnly(404),
+      expect: directors(404, 401),
     },
   ],
   '/api/users/[userId]/role': [
@@ -231,7 +320,7 @@ const MATRIX: Record<string, Row[]> = {
       path: () => `/api/users/${NO_ROW}/role`,
       body: { id: MATRIX_ID.role, role: 'attending' },
       variants: true,
-      expect: directorOnly(404),
+      expect: directors(404, 401),
     },
   ],
   '/api/users/[userId]/holds/lift': [
@@ -239,7 +328,7 @@ const MATRIX: Record<string, Row[]> = {
       method: 'POST',
       path: () => `/api/users/${NO_ROW}/holds/lift`,
       body: { id: MATRIX_ID.holds },
-      expect: directorOnly(404),
+      expect: directors(404, 401),
     },
   ],
   '/api/users/[userId]/cohort': [
@@ -247,26 +336,26 @@ const MATRIX: Record<string, Row[]> = {
       method: 'POST',
       path: () => `/api/users/${NO_ROW}/cohort`,
       body: { id: MATRIX_ID.cohort, cohortId: null },
-      expect: directorOnly(404),
+      expect: directors(404, 401),
     },
   ],
   '/api/users/[userId]/assignments': [
-    { method: 'GET', path: () => `/api/users/${NO_ROW}/assignments`, expect: directorOnly(404) },
+    { method: 'GET', path: () => `/api/users/${NO_ROW}/assignments`, expect: directors(404, 401) },
     {
       method: 'PUT',
       path: () => `/api/users/${NO_ROW}/assignments`,
       body: { id: MATRIX_ID.assignments, attendingIds: [] },
-      expect: directorOnly(404),
+      expect: directors(404, 401),
     },
   ],
   '/api/cohorts': [
-    { method: 'GET', path: () => '/api/cohorts', variants: true, expect: directorOnly(200) },
+    { method: 'GET', path: () => '/api/cohorts', variants: true, expect: directors(200, 401) },
     // An empty name: refused before anything is stored.
     {
       method: 'POST',
       path: () => '/api/cohorts',
       body: { id: MATRIX_ID.cohortCreate, name: ' ' },
-      expect: directorOnly(400),
+      expect: directors(400, 401),
     },
   ],
   '/api/cohorts/[cohortId]': [
@@ -274,7 +363,7 @@ const MATRIX: Record<string, Row[]> = {
       method: 'PATCH',
       path: () => `/api/cohorts/${NO_ROW}`,
       body: { id: MATRIX_ID.cohortUpdate, archived: true },
-      expect: directorOnly(404),
+      expect: directors(404, 401),
     },
   ],
   '/api/sync': [

@@ -4,12 +4,18 @@ import { formatZodError } from '../rules/index';
 import { readBody } from './body';
 import { isJson, jsonError, sameOrigin } from './http';
 
+/** The top-level field the first problem is about (`field` in a 400 answer), if any. */
+export function fieldOf(err: z.ZodError): string | undefined {
+  const first = err.issues[0]?.path[0];
+  return typeof first === 'string' ? first : undefined;
+}
+
 export type Parsed<T> = { ok: true; value: T; raw: unknown } | { ok: false; response: Response };
 
 /**
  * The body of a state-changing JSON request checked against `schema`: 403 from another origin,
- * 415 when not JSON, 413 past `maxBytes`, 400 with the first problem in plain words and, when
- * it is a field's, that field's name (`field`, the top-level key) for the form to show it beside.
+ * 415 when not JSON, 413 past `maxBytes`, 400 with the first problem in plain words and the
+ * field it is about (`field`).
  */
 export async function parseJsonBody<S extends z.ZodTypeAny>(
   request: Request,
@@ -34,10 +40,4 @@ export async function parseJsonBody<S extends z.ZodTypeAny>(
   const input = schema.safeParse(raw);
   if (!input.success) return fail(400, formatZodError(input.error), fieldOf(input.error));
   return { ok: true, value: input.data as z.infer<S>, raw };
-}
-
-/** The top-level field the first problem is about, if it is about one. */
-export function fieldOf(err: z.ZodError): string | undefined {
-  const key = err.issues[0]?.path[0];
-  return typeof key === 'string' ? key : undefined;
 }
