@@ -16,6 +16,7 @@ import {
   type CanalResult,
   type CaseAction,
   type CaseState,
+  type ConeFitSignoff,
   type Finding,
   type LogEvent,
   type Tolerances,
@@ -69,6 +70,32 @@ async function eventsFor(
     else byCanal.get(r.canal_id)?.push(rowToEvent(r));
   }
   return { caseLevel, byCanal };
+}
+
+/**
+ * The `cone-fit` sign-offs of the given canals, by canal: what the rules need besides the
+ * events for `cone-fit-not-approved`. Read only while `requireConeFitApproval` is on (the
+ * check judges nothing otherwise), so the hot path of sync pays nothing for it.
+ */
+async function coneFitSignoffs(
+  k: Knex,
+  caseId: string,
+  canalIds: readonly string[],
+  judge: Judge,
+): Promise<Map<string, ConeFitSignoff[]>> {
+  const out = new Map<string, ConeFitSignoff[]>();
+  if (!(judge.tolerances.requireConeFitApproval >= 1)) return out;
+  const rows = (await inChunks(canalIds, (chunk) =>
+    k('signoffs')
+      .select('canal_id', 'decision', 'created_at')
+      .where({ case_id: caseId, checkpoint: 'cone-fit' })
+      .whereIn('decision', ['approved', 'returned'])
+      .whereIn('canal_id', chunk)
+      .orderBy('id'),
+  )) as { canal_id: string; decision: ConeFitSignoff['decision']; created_at: string }[];
+  for (const r of rows)
+    out.set(r.canal_id, [...(out.get(r.canal_id) ?? []), { decision: r.decision, at: r.created_at }]);
+  return out;
 }
 
 type StoredFinding = Pick<FindingRow, 'canal_id' | 'code' | 'severity' | 'event_id' | 'message'>;
@@ -132,7 +159,8 @@ function diffHistory(
 
 /**
  * Judges the given canals of one case and stores what the rules make of them; answers their
- * results (without the case's review status). Each canal is evaluated with its own events and
+ * results (without the case's review status). The rules see each canal's events and, for the
+ * cone-fit check, its `cone-fit` sign-offs (a sign-off calls this too: reviews.ts). Each canal is evaluated with its own events and
  * the case-level ones only, so a batch that touched one canal reads and judges that canal.
  */
 export async function projectCanals(
@@ -144,6 +172,7 @@ export async function projectCanals(
   const ids = [...canalIds];
   if (ids.length === 0) return [];
   const { caseLevel, byCanal } = await eventsFor(k, caseId, ids);
+  const coneFit = await coneFitSignoffs(k, caseId, ids, judge);
   const stored = groupBy(
     (await inChunks(ids, (chunk) =>
       k('findings')
@@ -167,7 +196,9 @@ export async function projectCanals(
   const clear: number[] = [];
   const out: CanalResult[] = [];
   for (const canalId of ids) {
-    const result = evaluateCanal(canalId, [...caseLevel, ...(byCanal.get(canalId) ?? [])], judge.tolerances);
+    const result = evaluateCanal(canalId, [...caseLevel, ...(byCanal.get(canalId) ?? [])], judge.tolerances, {
+      coneFit: coneFit.get(canalId) ?? [],
+    });
     const findings = result?.findings ?? [];
     diffHistory(canalId, open.get(canalId) ?? [], findings, judge.at, raise, clear);
     const before = stored.get(canalId) ?? [];
