@@ -1,4 +1,4 @@
-import { lazy, useState } from 'react';
+import { lazy, Suspense, useState } from 'react';
 import type { CaseInfo, TabletCase } from '../../lib/client/derive';
 import { useChairside } from '../../lib/client/store';
 import { lockOf } from '../../lib/client/views';
@@ -13,6 +13,8 @@ const CanalSetup = lazy(() => import('./CanalSetup').then((m) => ({ default: m.C
 const Summary = lazy(() => import('./Summary').then((m) => ({ default: m.Summary })));
 const DiscardCase = lazy(() => import('./DiscardCase').then((m) => ({ default: m.DiscardCase })));
 const ReviewLock = lazy(() => import('./ReviewLock').then((m) => ({ default: m.ReviewLock })));
+// The attending's sign-offs and comments, below the canal so that nothing above moves when they arrive.
+const CaseNewsPanel = lazy(() => import('./CaseNews').then((m) => ({ default: m.CaseNewsPanel })));
 
 /** One open case: canal tabs, and below them the canal stepper, the canal set-up or the finishing card. */
 export function CaseView(props: { info: CaseInfo; tablet: TabletCase }) {
@@ -130,6 +132,9 @@ export function CaseView(props: { info: CaseInfo; tablet: TabletCase }) {
       />
       <div className="p-3">
         <Later>{body}</Later>
+        <Suspense fallback={null}>
+          <CaseNewsPanel caseId={info.caseId} />
+        </Suspense>
       </div>
     </div>
   );
