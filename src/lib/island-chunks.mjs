@@ -7,35 +7,38 @@
 // strip moved about 7 KB (gzipped) out of the chairside's chunk into shared chunks, and the
 // chairside's first paint grew by 1.1 KB (0.5 KB for the rules core alone) — two files pack
 // worse than one. Hence:
-// - `ownCopies` gives the calculators island its own copy of every module of ours it imports
-//   (the same source file under another module id, so nothing is written twice by hand);
+// - `ownCopies` gives the calculators island and the review queue's island their own copy of
+//   every module of ours they import (the same source file under another module id, so
+//   nothing is written twice by hand); the two may share those copies with each other;
 // - `reactChunk` keeps React's own modules (react, react/jsx-runtime) in one chunk, which both
 //   islands and the React renderer load anyway.
 // The calculators browser test checks that the two pages share no script but React's.
 import { fileURLToPath } from 'node:url';
 
 const SRC = fileURLToPath(new URL('..', import.meta.url));
-const COPY = '?calculators-copy';
+const COPY = '?island-copy';
 
 /**
- * A Vite plugin: in the browser build, a module of `src/` imported from `islandDir` (or from
- * one of its copies) is loaded as a copy of its own. Modules in `islandDir` itself and
- * packages are left alone.
- * @param {string} islandDir folder of the island, relative to src/
+ * A Vite plugin: in the browser build, a module of `src/` imported from one of `islandDirs`
+ * (or from one of its copies) is loaded as a copy of its own. Modules in those folders
+ * themselves and packages are left alone.
+ * @param {string[]} islandDirs folders of the islands, relative to src/
  * @returns {import('vite').Plugin}
  */
-export function ownCopies(islandDir = 'components/calculators/') {
-  const island = SRC + islandDir;
+export function ownCopies(islandDirs = ['components/calculators/', 'components/review/queue/']) {
+  const islands = islandDirs.map((d) => SRC + d);
+  /** @param {string} id */
+  const inIsland = (id) => islands.some((dir) => id.startsWith(dir));
   return {
     name: 'coneline:own-copies',
     enforce: 'pre',
     apply: 'build',
     async resolveId(source, importer, options) {
       if (!importer || options.ssr || this.environment?.config.consumer === 'server') return null;
-      if (!importer.startsWith(island) && !importer.endsWith(COPY)) return null;
+      if (!inIsland(importer) && !importer.endsWith(COPY)) return null;
       const resolved = await this.resolve(source, importer, { ...options, skipSelf: true });
       if (!resolved || resolved.external || resolved.id.includes('?')) return resolved;
-      if (!resolved.id.startsWith(SRC) || resolved.id.startsWith(island)) return resolved;
+      if (!resolved.id.startsWith(SRC) || inIsland(resolved.id)) return resolved;
       return { ...resolved, id: resolved.id + COPY };
     },
   };

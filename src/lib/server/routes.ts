@@ -23,6 +23,8 @@ export const PUBLIC_ROUTES: ReadonlySet<string> = new Set([
 export const ROLE_ROUTES: Readonly<Record<string, readonly Role[]>> = {
   '/admin': ['director'],
   '/api/sync': ['student'],
+  '/review': ['attending', 'director'],
+  '/api/review/queue': ['attending', 'director'],
 };
 
 /** The roles a route is limited to, or null when any signed-in user may reach it. */
