@@ -46,7 +46,7 @@ export function evaluateCanal(
 ): CanalResult | null {
   const reading = readCanal(canalId, events, tolerances);
   if (reading === null) return null;
-  const extra = coneFitChecks(reading.counted, resolveTolerances(tolerances), review?.coneFit ?? []);
+  const extra = coneFitChecks(reading.counted, resolveTolerances(tolerances), review?.coneFit ?? [], review?.received);
   if (extra.length === 0) return reading.result;
   const { result } = reading;
   return { ...result, findings: ordered([...result.findings, ...extra], reading.counted) };

@@ -73,19 +73,22 @@ async function eventsFor(
 }
 
 /**
- * The `cone-fit` sign-offs of the given canals, by canal: what the rules need besides the
- * events for `cone-fit-not-approved`. Read only while `requireConeFitApproval` is on (the
- * check judges nothing otherwise), so the hot path of sync pays nothing for it.
+ * What the rules need besides the events for `cone-fit-not-approved`, by canal: the canal's
+ * `cone-fit` sign-offs, and when the server received its cone-fit records (docs/review.md).
+ * Read only while `requireConeFitApproval` is on (the check judges nothing otherwise), so the
+ * hot path of sync pays nothing for it.
  */
-async function coneFitSignoffs(
+async function canalReviews(
   k: Knex,
   caseId: string,
   canalIds: readonly string[],
   judge: Judge,
-): Promise<Map<string, ConeFitSignoff[]>> {
-  const out = new Map<string, ConeFitSignoff[]>();
+): Promise<Map<string, { coneFit: ConeFitSignoff[]; received: Record<string, string> }>> {
+  const out = new Map(
+    canalIds.map((id) => [id, { coneFit: [] as ConeFitSignoff[], received: {} as Record<string, string> }]),
+  );
   if (!(judge.tolerances.requireConeFitApproval >= 1)) return out;
-  const rows = (await inChunks(canalIds, (chunk) =>
+  const signoffs = (await inChunks(canalIds, (chunk) =>
     k('signoffs')
       .select('canal_id', 'decision', 'created_at')
       .where({ case_id: caseId, checkpoint: 'cone-fit' })
@@ -93,8 +96,18 @@ async function coneFitSignoffs(
       .whereIn('canal_id', chunk)
       .orderBy('id'),
   )) as { canal_id: string; decision: ConeFitSignoff['decision']; created_at: string }[];
-  for (const r of rows)
-    out.set(r.canal_id, [...(out.get(r.canal_id) ?? []), { decision: r.decision, at: r.created_at }]);
+  for (const r of signoffs) out.get(r.canal_id)?.coneFit.push({ decision: r.decision, at: r.created_at });
+  const records = (await inChunks(canalIds, (chunk) =>
+    k('events')
+      .select('id', 'canal_id', 'received_at')
+      .where({ case_id: caseId })
+      .whereIn('type', ['conefit.requested', 'conefit.approvedAtChair'])
+      .whereIn('canal_id', chunk),
+  )) as { id: string; canal_id: string; received_at: string }[];
+  for (const r of records) {
+    const review = out.get(r.canal_id);
+    if (review) review.received[r.id] = r.received_at;
+  }
   return out;
 }
 
@@ -172,7 +185,7 @@ export async function projectCanals(
   const ids = [...canalIds];
   if (ids.length === 0) return [];
   const { caseLevel, byCanal } = await eventsFor(k, caseId, ids);
-  const coneFit = await coneFitSignoffs(k, caseId, ids, judge);
+  const reviews = await canalReviews(k, caseId, ids, judge);
   const stored = groupBy(
     (await inChunks(ids, (chunk) =>
       k('findings')
@@ -196,9 +209,12 @@ export async function projectCanals(
   const clear: number[] = [];
   const out: CanalResult[] = [];
   for (const canalId of ids) {
-    const result = evaluateCanal(canalId, [...caseLevel, ...(byCanal.get(canalId) ?? [])], judge.tolerances, {
-      coneFit: coneFit.get(canalId) ?? [],
-    });
+    const result = evaluateCanal(
+      canalId,
+      [...caseLevel, ...(byCanal.get(canalId) ?? [])],
+      judge.tolerances,
+      reviews.get(canalId),
+    );
     const findings = result?.findings ?? [];
     diffHistory(canalId, open.get(canalId) ?? [], findings, judge.at, raise, clear);
     const before = stored.get(canalId) ?? [];

@@ -93,6 +93,22 @@ describe('cone-fit-not-approved', () => {
     expect(judge(log, [signoff('returned', around(log, 'seated', 300)), confirmed])).toEqual([]);
   });
 
+  it('takes no sign-off made before the server received an approval at the chair as its answer', () => {
+    const log = canal();
+    const chair = log.add('chair', 'conefit.approvedAtChair', { attendingId: '4' }, { after: 'cone-fit-rad' });
+    const early = signoff('returned', around(log, 'seated', 1200));
+    const received = { [chair.id]: around(log, 'seated', 3600) };
+    expect(judge(log, [early])).toHaveLength(1);
+    const r = evaluateCanal(log.canalId, log.events, ON, { coneFit: [early], received })!;
+    expect(only(r, 'cone-fit-not-approved')).toEqual([]);
+    expect(coneFitStanding(counted(log), [early], received)).toMatchObject({ status: 'at-chair', pending: true });
+    // A return after the server received it is a dispute.
+    const late = signoff('returned', around(log, 'seated', 4000));
+    expect(
+      only(evaluateCanal(log.canalId, log.events, ON, { coneFit: [early, late], received })!, 'cone-fit-not-approved'),
+    ).toHaveLength(1);
+  });
+
   it('does not count a withdrawn approval at the chair, nor a request alone', () => {
     const log = canal();
     log.add('req', 'conefit.requested', {}, { after: 'cone-fit-rad' });
