@@ -29,10 +29,15 @@ export type { Tolerances } from './rules/tolerances';
  * ever accepted (tablets run an older precached app until they update), and a tablet records
  * an event type only when the server it talks to knows it (EVENT_TYPE_SINCE).
  */
-export const CONTRACT_VERSION = 2;
+export const CONTRACT_VERSION = 3;
 
 /** Event types added after version 1, with the version that added them. */
-const ADDED: Partial<Record<EventType, number>> = { 'compaction.finished': 2, 'case.discarded': 2 };
+const ADDED: Partial<Record<EventType, number>> = {
+  'compaction.finished': 2,
+  'case.discarded': 2,
+  'conefit.requested': 3,
+  'conefit.approvedAtChair': 3,
+};
 
 /** The contract version in which each event type appeared. */
 export const EVENT_TYPE_SINCE: Readonly<Record<EventType, number>> = Object.fromEntries(
@@ -281,6 +286,12 @@ export interface Clinic {
   locale: string;
 }
 
+/** An attending a student may name (the student's assigned attendings). */
+export interface AttendingRef {
+  id: number;
+  name: string;
+}
+
 /** GET /api/me: the signed-in user, the installation's demo mode, the clinic, the contract version. */
 export interface MeAnswer {
   id: number;
@@ -290,6 +301,14 @@ export interface MeAnswer {
   demo: boolean;
   clinic: Clinic;
   contractVersion: number;
+  /**
+   * Added with the cone fit at the chair (contract version 3); absent from older servers. A
+   * student's active assigned attendings, by name (the tablet keeps them for recording an
+   * approval at the chair offline); empty for other roles.
+   */
+  attendings?: AttendingRef[];
+  /** Added with contract version 3: the course setting `requireConeFitApproval` is 1. */
+  requireConeFitApproval?: boolean;
 }
 
 /** Every error answer of the API. */

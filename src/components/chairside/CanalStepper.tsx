@@ -7,16 +7,20 @@ import { shownResult } from '../../lib/client/views';
 import { canalTitle } from '../../lib/present/labels';
 import { CanalDiagram } from '../shared/CanalDiagram';
 import type { CardProps } from './cardTypes';
+import { Later } from './Later';
 import { useCardGuard } from './useCardGuard';
 import { CanalTimeline } from './CanalTimeline';
 import { FindingList, JustEntered } from './FindingList';
 import { AccessoryCard, RemoveCard, SpreaderCard } from './StepCardsCompaction';
-import { CleanCard, CompactCard, DoneCard, FillCard, SearCard } from './StepCardsFinish';
 import { DryCard, MasterCard, RadiographCard, RinseCard, SealCard, SeatCard, TaperCard } from './StepCardsPrep';
 
 // Correcting the CWL is rare: its panel loads with the first card (precached), in a box of
 // the button's height so nothing below it moves when it arrives.
 const CwlCorrection = lazy(() => import('./CwlCorrection').then((m) => ({ default: m.CwlCorrection })));
+// The cards after compaction come once per canal, late in it: loaded when the first is shown.
+const FinishCard = lazy(() => import('./StepCardsFinish').then((m) => ({ default: m.FinishCard })));
+// Asking the attending to check the cone fit: on the cone-fit and sealing cards only.
+const ConeFitPanel = lazy(() => import('./ConeFitPanel').then((m) => ({ default: m.ConeFitPanel })));
 
 function renderCard(card: Card, p: CardProps, onFinishTooth: () => void, retake: boolean) {
   switch (card.kind) {
@@ -40,16 +44,12 @@ function renderCard(card: Card, p: CardProps, onFinishTooth: () => void, retake:
       return <AccessoryCard {...p} cycle={card.cycle} depthMm={card.depthMm} redo={card.redo} />;
     case 'remove':
       return <RemoveCard {...p} eventId={card.eventId} lengthMm={card.lengthMm} depthMm={card.depthMm} />;
-    case 'fill':
-      return <FillCard {...p} radiographTaken={card.radiographTaken} needsRadiograph={card.needsRadiograph} />;
-    case 'sear':
-      return <SearCard {...p} />;
-    case 'compact':
-      return <CompactCard {...p} />;
-    case 'clean':
-      return <CleanCard {...p} />;
-    case 'done':
-      return <DoneCard {...p} onFinishTooth={onFinishTooth} />;
+    default:
+      return (
+        <Later>
+          <FinishCard {...p} card={card} onFinishTooth={onFinishTooth} />
+        </Later>
+      );
   }
 }
 
@@ -124,6 +124,11 @@ export function CanalStepper(props: {
             cardProps,
             props.onFinishTooth,
             findings.some((f) => f.code === 'cone-fit-retake-needed'),
+          )}
+          {(card.kind === 'seal' || (card.kind === 'radiograph' && card.purpose === 'cone-fit')) && (
+            <Suspense fallback={null}>
+              <ConeFitPanel canal={canal} caseId={caseId} seal={card.kind === 'seal'} />
+            </Suspense>
           )}
         </div>
         {lastHere && (

@@ -1,10 +1,13 @@
-import { useEffect, useMemo, useState } from 'react';
+import { lazy, Suspense, useEffect, useMemo, useState } from 'react';
 import { SETTING_LABEL } from '../../lib/present/labels';
 import { DEFAULT_CLINIC, formatInstant } from '../../lib/present/format';
 import { fetchCases, type CaseSummary } from '../../lib/client/api';
 import { casesOnTablet } from '../../lib/client/derive';
 import { useChairside } from '../../lib/client/store';
 import { Answer, Answers, StepCard } from './AnswerButtons';
+
+// The "came back" mark of a returned case, with its comment (loaded after the first paint).
+const CameBack = lazy(() => import('./CaseNews').then((m) => ({ default: m.CameBack })));
 
 /** The start screen: open a new case, go on with one on this tablet, or fetch one from the server. */
 export function CaseList({ onNew }: { onNew: () => void }) {
@@ -24,7 +27,8 @@ export function CaseList({ onNew }: { onNew: () => void }) {
     };
   }, []);
   const onTablet = new Set(cases.map((c) => c.caseId));
-  const elsewhere = remote.filter((c) => !c.submitted && !onTablet.has(c.caseId));
+  // A returned case is worked on again: it may be fetched from another device too.
+  const elsewhere = remote.filter((c) => (!c.submitted || c.reviewStatus === 'returned') && !onTablet.has(c.caseId));
   return (
     <div className="flex flex-col gap-4">
       <StepCard title="Chairside" hint="One tooth at a time, canal by canal.">
@@ -47,6 +51,9 @@ export function CaseList({ onNew }: { onNew: () => void }) {
                   {SETTING_LABEL[c.setting]} · opened {formatInstant(c.openedAt, clinic)}
                   {c.submitted ? ' · submitted' : ''}
                 </span>
+                <Suspense fallback={null}>
+                  <CameBack caseId={c.caseId} remote={remote} />
+                </Suspense>
               </li>
             ))}
           </ul>
@@ -66,6 +73,9 @@ export function CaseList({ onNew }: { onNew: () => void }) {
                 <span className="text-base">
                   {SETTING_LABEL[c.setting]} · {c.canals.map((k) => k.name).join(', ')}
                 </span>
+                <Suspense fallback={null}>
+                  <CameBack caseId={c.caseId} remote={remote} />
+                </Suspense>
               </li>
             ))}
           </ul>

@@ -1,4 +1,4 @@
-import { lazy, useState } from 'react';
+import { lazy, Suspense, useState } from 'react';
 import type { CaseInfo, TabletCase } from '../../lib/client/derive';
 import { useChairside } from '../../lib/client/store';
 import { lockOf } from '../../lib/client/views';
@@ -14,6 +14,8 @@ const CanalSetup = lazy(() => import('./CanalSetup').then((m) => ({ default: m.C
 const Summary = lazy(() => import('./Summary').then((m) => ({ default: m.Summary })));
 const DiscardCase = lazy(() => import('./DiscardCase').then((m) => ({ default: m.DiscardCase })));
 const ReviewLock = lazy(() => import('./ReviewLock').then((m) => ({ default: m.ReviewLock })));
+// The attending's sign-offs and comments, below the canal so that nothing above moves when they arrive.
+const CaseNewsPanel = lazy(() => import('./CaseNews').then((m) => ({ default: m.CaseNewsPanel })));
 
 /** One open case: canal tabs, and below them the canal stepper, the canal set-up or the finishing card. */
 export function CaseView(props: { info: CaseInfo; tablet: TabletCase }) {
@@ -134,6 +136,9 @@ export function CaseView(props: { info: CaseInfo; tablet: TabletCase }) {
         <Guarded screen={`${lock ?? 'open'}|${showAdd ? 'add' : view}|${queue[0] ?? ''}|${selected?.canalId ?? ''}`}>
           <Later>{body}</Later>
         </Guarded>
+        <Suspense fallback={null}>
+          <CaseNewsPanel caseId={info.caseId} />
+        </Suspense>
       </div>
     </div>
   );

@@ -4,7 +4,11 @@ import { canalTitle } from '../../lib/present/labels';
 import { useChairside } from '../../lib/client/store';
 import { Answer, Answers, Chip, ChipGroup, StepCard } from './AnswerButtons';
 import { mm, RulerStrip } from './RulerStrip';
+import type { Card } from '../../lib/client/flow';
 import type { CardProps } from './cardTypes';
+
+/** The steps after compaction. */
+export type FinishStep = Extract<Card, { kind: 'fill' | 'sear' | 'compact' | 'clean' | 'done' }>;
 
 const LENGTHS = [
   ['flush', 'Flush'],
@@ -160,4 +164,21 @@ export function DoneCard({ canal, onFinishTooth }: CardProps & { onFinishTooth: 
       </Answers>
     </StepCard>
   );
+}
+
+/** The cards after compaction, one per step: loaded when the first of them is shown (CanalStepper). */
+export function FinishCard(props: CardProps & { card: FinishStep; onFinishTooth: () => void }) {
+  const { card } = props;
+  switch (card.kind) {
+    case 'fill':
+      return <FillCard {...props} radiographTaken={card.radiographTaken} needsRadiograph={card.needsRadiograph} />;
+    case 'sear':
+      return <SearCard {...props} />;
+    case 'compact':
+      return <CompactCard {...props} />;
+    case 'clean':
+      return <CleanCard {...props} />;
+    case 'done':
+      return <DoneCard {...props} />;
+  }
 }

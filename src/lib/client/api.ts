@@ -1,4 +1,4 @@
-import type { CaseDetail, CaseSummary, Clinic, MeAnswer, Role, SyncAnswer } from '../contract';
+import type { AttendingRef, CaseDetail, CaseSummary, Clinic, MeAnswer, Role, SyncAnswer } from '../contract';
 import type { LogEvent } from '../rules/core';
 
 export type { CaseSummary, MeAnswer, SyncAnswer };
@@ -12,6 +12,9 @@ export interface Me {
   role: Role;
   /** The clinic's time zone and locale, kept with the user so the tablet shows times offline too. */
   clinic?: Clinic;
+  /** A student's assigned attendings and whether the course asks for a cone-fit approval (contract version 3), kept for offline use. */
+  attendings?: AttendingRef[];
+  requireConeFitApproval?: boolean;
 }
 
 /** What came back: a value, "not signed in", or no answer at all (offline, server down). */

@@ -39,10 +39,10 @@ export async function resolveIdentity(): Promise<Identity> {
   const last = await getMeta<Me>(LAST_USER);
   const me = await fetchMe();
   if (me.kind === 'ok') {
-    const { id, name, role, clinic } = me.value;
+    const { id, name, role, clinic, attendings, requireConeFitApproval } = me.value;
     const demo = me.value.demo === true;
     if (last && last.id !== id) await clearUserIfSynced(last.id);
-    const user: Me = clinic ? { id, name, role, clinic } : { id, name, role };
+    const user: Me = { id, name, role, clinic, attendings, requireConeFitApproval };
     await setMeta(LAST_USER, user);
     await setMeta(DEMO_MODE, demo);
     // A server from before the contract had a version reports none: it knows version 1.

@@ -60,6 +60,8 @@ export interface ChairsideState {
   tablet: TabletCase;
   /** Each case's review status as the server last answered it (pulled while the case is open). */
   reviews: Record<string, ReviewStatus>;
+  /** Where a returned case opens: the canal its return names, or the first with a stop (set by the case list's mark, CaseNews.tsx). */
+  landing?: Record<string, string>;
   /** Whether the browser keeps the outbox under storage pressure (asked after sign-in). */
   persistence: Persistence | null;
   canalId: string | null;
@@ -264,7 +266,7 @@ export const useChairside = create<ChairsideState>((set, get) => {
     clearUndo: () => set({ undo: null }),
 
     openCase(caseId, canalId = null) {
-      set({ caseId, canalId, last: null, undo: null });
+      set({ caseId, canalId: canalId ?? get().landing?.[caseId!] ?? null, last: null, undo: null });
       remember();
     },
 

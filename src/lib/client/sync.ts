@@ -1,6 +1,14 @@
 import { LIMITS, type CanalResult, type LogEvent } from '../rules/core';
 import { fetchCaseIfChanged, postSync, type Answer, type CaseAnswer, type ReviewStatus, type SyncAnswer } from './api';
-import { applyResults, importSynced, listQueued, putServerCanals, refuseOrphans, type StoredEvent } from './outbox';
+import {
+  applyResults,
+  importSynced,
+  listQueued,
+  putServerCanals,
+  refuseOrphans,
+  setMeta,
+  type StoredEvent,
+} from './outbox';
 
 /** The server takes at most 500 events and 1 MB per batch (docs/sync-contract.md, limits.ts). */
 export const MAX_BATCH_EVENTS: number = LIMITS.eventsPerBatch;
@@ -93,8 +101,10 @@ export type PullOutcome =
 
 /**
  * Pull one case's news with a conditional GET and merge what changed into this tablet: the
- * server's canal verdicts (state, findings, review states) and any stored event the tablet
- * lacks (never overwriting one it recorded). `etag` is the one the last pull returned.
+ * server's canal verdicts (state, findings, review states), any stored event the tablet
+ * lacks (never overwriting one it recorded), and the case's sign-offs and comments, kept as
+ * they came under `[userId, 'news', caseId]` (news.ts reads them). `etag` is the one the last
+ * pull returned.
  */
 export async function pullCase(
   userId: number,
@@ -110,9 +120,10 @@ export async function pullCase(
     // Not on the server yet (its opening still queued), or not this user's: nothing to merge.
     return news.status === 404 ? { kind: 'missing' } : { kind: 'error', status: news.status };
   }
-  const { events, canals, reviewStatus } = news.value;
+  const { events, canals, reviewStatus, signoffs, comments } = news.value;
   if (events.length) await importSynced(userId, events);
   if (canals.length) await putServerCanals(userId, canals);
+  if (signoffs) await setMeta([userId, 'news', caseId], { signoffs, comments });
   return { kind: 'changed', etag: news.etag ?? null, ...(reviewStatus ? { reviewStatus } : {}) };
 }
 

@@ -80,6 +80,10 @@ export function describeEvent(e: DescribedEvent): string {
       const reason = s('reason').trim();
       return `Case discarded${reason === '' ? '' : `: ${reason}`}`;
     }
+    case 'conefit.requested':
+      return 'Asked the attending to check the cone fit';
+    case 'conefit.approvedAtChair':
+      return 'The attending approved the cone fit at the chair';
     default:
       // A type from a newer server: its words, without the label table the tablet never needs.
       return plainWords(e.type);

@@ -19,6 +19,7 @@ export const FINDING_TITLE: Readonly<Record<FindingCode, string>> = {
   'master-beyond-cwl': 'Master cone past the CWL',
   'cone-fit-radiograph-missing': 'Cone-fit radiograph missing',
   'cone-fit-retake-needed': 'Cone-fit radiograph to retake',
+  'cone-fit-not-approved': 'Sealed before the cone fit was approved',
   'compaction-before-seat': 'Compaction before the cone was seated',
   'spreader-beyond-cwl': 'Spreader past the CWL',
   'first-spreader-short': 'First spreader short',

@@ -97,6 +97,8 @@ export const EVENT_TYPE_LABEL: Readonly<Record<EventType, string>> = {
   'case.submitted': 'Submitted for review',
   'compaction.finished': 'Compaction finished',
   'case.discarded': 'Case discarded',
+  'conefit.requested': 'Cone-fit check asked for',
+  'conefit.approvedAtChair': 'Cone fit approved at the chair',
 };
 export const eventTypeLabel = (type: string): string => look(EVENT_TYPE_LABEL, type);
 

@@ -56,6 +56,8 @@ export { FINDINGS, FINDING_CODES, SAFETY_LINE } from './findings';
 export type { Severity, FindingCode, Finding, FindingInfo } from './findings';
 export { evaluateCanal, readCanal } from './evaluate';
 export type { CanalResult, CanalReading } from './evaluate';
+export { coneFitStanding, coneFitChecks } from './conefit';
+export type { ConeFitSignoff, CanalReview, ConeFitStatus, ConeFitStanding } from './conefit';
 export { caseTimeline, compareEvents } from './timeline';
 export type { CanalState, CanalStatus } from './state';
 export {

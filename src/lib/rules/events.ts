@@ -29,6 +29,9 @@ export const EVENT_TYPES = [
   // Contract version 2 (docs/sync-contract.md): appended, never reordered.
   'compaction.finished',
   'case.discarded',
+  // Contract version 3: the cone-fit check at the chair (docs/review.md).
+  'conefit.requested',
+  'conefit.approvedAtChair',
 ] as const;
 export type EventType = (typeof EVENT_TYPES)[number];
 
@@ -103,6 +106,8 @@ export const DATA = {
   'case.submitted': {},
   'compaction.finished': {},
   'case.discarded': { reason: f.text('reason', TEXT_MAX) },
+  'conefit.requested': {},
+  'conefit.approvedAtChair': { attendingId: f.userRef('attendingId') },
 } satisfies Record<EventType, Shape>;
 
 /** Events that must carry no canalId. */

@@ -157,6 +157,16 @@ export const preparation = (name: string) =>
     return no(`${name} must be "step-back" or a taper from 0.02 to 0.12 such as 0.04`);
   });
 
+/**
+ * A user's id as the server numbers its accounts (`GET /api/me` answers it), written as a
+ * string of digits ("4"); the number 4 is read as "4", the way sizes are read.
+ */
+export const userRef = (name: string) =>
+  field(name, (v): string | Invalid => {
+    const s = typeof v === 'number' && Number.isSafeInteger(v) ? String(v) : v;
+    return typeof s === 'string' && /^[1-9]\d{0,14}$/.test(s) ? s : no(`${name} must be the id of a user, such as "4"`);
+  });
+
 export const SOLUTIONS = ['naocl', 'edta', 'saline', 'chlorhexidine'] as const;
 /** Rinse solutions: a non-empty list, duplicates dropped, the order kept. */
 export const solutions = (name: string) =>

@@ -112,6 +112,14 @@ const CATALOGUE: Record<FindingCode, Omit<FindingInfo, 'severity'>> = {
       'Tooth: after the last cone-fit radiograph the cone was refitted at a length differing by at least the threshold from the fit that radiograph showed, or with a cone of another size, and no newer cone-fit radiograph followed.',
     source: `${PRACTICE}: retake the cone-fit radiograph when the cone is changed by 1 mm or more.`,
   },
+  'cone-fit-not-approved': {
+    title: 'Sealed before the cone fit was approved',
+    tolerance: 'requireConeFitApproval',
+    raisedWhen:
+      "Only while `requireConeFitApproval` is 1: the master cone is seated (the latest seating) and the latest cone-fit decision before it is not an approval. The decisions are the attending's `cone-fit` sign-offs of the canal (approve or return) and the student's live `conefit.approvedAtChair` records; an at-chair record counts unless the latest `cone-fit` sign-off after it is a return (a dispute), even one made after the seating. An approval after the seating does not clear it; seating again after an approval does.",
+    source:
+      "Coneline (judgement): a school's protocol may have the attending check every cone fit before the canal is sealed; the switch is the school's, off by default.",
+  },
   'compaction-before-seat': {
     title: 'Compaction before the master cone was seated',
     raisedWhen: 'A spreader placement or a kept accessory cone is recorded before the master cone is seated.',

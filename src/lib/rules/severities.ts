@@ -19,6 +19,7 @@ export const SEVERITY = {
   'master-beyond-cwl': 'stop',
   'cone-fit-radiograph-missing': 'caution',
   'cone-fit-retake-needed': 'caution',
+  'cone-fit-not-approved': 'stop',
   'compaction-before-seat': 'caution',
   'spreader-beyond-cwl': 'stop',
   'first-spreader-short': 'caution',

@@ -12,6 +12,8 @@ export interface Tolerances {
   minAccessoryCones: number;
   fallbackStopDepthMm: number;
   fillShortLimitMm: number;
+  /** 1: the attending approves each canal's cone fit before it is sealed (`cone-fit-not-approved`); 0: no such check. */
+  requireConeFitApproval: number;
 }
 
 /**
@@ -32,6 +34,7 @@ export const TOLERANCE_LABELS: Readonly<Record<keyof Tolerances, Sourced>> = {
       'Jurič et al., Int Endod J 2024; European Society of Endodontology quality guidelines, Int Endod J 2006;39:921–930',
     label: 'seen',
   },
+  requireConeFitApproval: { source: CONELINE, label: 'judgement' },
 };
 
 const ALLISON = 'Allison, Weber & Walton, J Endod 1979;5(10):298–304 (seen)';
@@ -53,6 +56,8 @@ const NOTES: Readonly<Record<keyof Tolerances, string>> = {
     "stop when the spreader no longer passes the coronal third, about 10–12 mm from a cusp reference in most teeth; the upper end is the default. On an anterior tooth it is scaled by the tooth type's average length, s × A / 21 (judgement; see Canal thirds).",
   fillShortLimitMm:
     "a fill more than 2 mm short of the radiographic apex is under-filled (the guidelines seen through their abstract and secondary tables). The contract's fill categories are drawn at this limit.",
+  requireConeFitApproval:
+    "a switch, not a length: 1 has the attending approve each canal's cone fit (at the chair or from the review queue) before the master cone is seated with sealer; 0, the default, leaves it to the school's own routine. A school's protocol, not a fact of the trade.",
 };
 
 /** "Trade teaching (practice): …": a source, its label and the note, as the reference page shows it. */
@@ -88,6 +93,7 @@ export const DEFAULT_TOLERANCES: Tolerances = Object.freeze({
   minAccessoryCones: 3, // judgement: practice says 4–5 usual; 3 is our floor for a note
   fallbackStopDepthMm: 12, // practice: 10–12 mm from a cusp tip
   fillShortLimitMm: 2, // Jurič 2024 (seen); ESE 2006 (abstract seen)
+  requireConeFitApproval: 0, // judgement: off unless the school's protocol asks for it
 });
 
 /**
@@ -105,6 +111,7 @@ export const TOLERANCE_RANGES: Readonly<Record<keyof Tolerances, { min: number; 
   minAccessoryCones: { min: 0, max: 10 },
   fallbackStopDepthMm: { min: 8, max: 16 },
   fillShortLimitMm: { min: 0.5, max: 3 },
+  requireConeFitApproval: { min: 0, max: 1 },
 });
 
 /** Whether `value` is a number a director may set `key` to (finite, within its range). */

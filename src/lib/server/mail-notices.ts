@@ -1,7 +1,7 @@
 /**
  * The review notices (issue 11, item 7): who is told what, in words. To the assigned
- * attendings when a case is submitted; to the student on every return and on the final
- * approval. Each names the tooth, the date the case was opened and a link to it — never the
+ * attendings when a case is submitted or a cone-fit check is asked for; to the student on
+ * every return and on the final approval. Each names the tooth, the date the case was opened and a link to it — never the
  * chart number or anything else about the patient, and never the attending's comment (which
  * may mention the patient): the link leads to it behind a sign-in.
  */
@@ -21,7 +21,7 @@ export interface NoticeCase {
   studentName: string;
 }
 
-export type NoticeKind = 'submitted' | 'returned' | 'approved' | 'reopened';
+export type NoticeKind = 'submitted' | 'conefit' | 'returned' | 'approved' | 'reopened';
 
 const CHECKPOINT_WORDS = { 'cone-fit': 'cone fit', 'fill-check': 'fill check', final: 'case' } as const;
 export type NoticeCheckpoint = keyof typeof CHECKPOINT_WORDS;
@@ -40,7 +40,8 @@ export function composeNotice(
 ): { subject: string; text: string } {
   const tooth = toothWords(c);
   const date = formatInstant(c.openedAt, opts.clinic, 'date');
-  const link = `${opts.publicUrl}/cases/${c.id}`;
+  // A cone-fit check is answered from the review queue, where it waits at the top.
+  const link = kind === 'conefit' ? `${opts.publicUrl}/review` : `${opts.publicUrl}/cases/${c.id}`;
   const what =
     opts.checkpoint && opts.checkpoint !== 'final'
       ? `the ${CHECKPOINT_WORDS[opts.checkpoint]}${opts.canalName ? ` of canal ${opts.canalName}` : ''}`
@@ -49,6 +50,10 @@ export function composeNotice(
     submitted: {
       subject: `Waiting for your review: ${tooth}, ${date}`,
       first: `${c.studentName} submitted a case for your review.`,
+    },
+    conefit: {
+      subject: `Cone fit to check: ${tooth}, ${date}`,
+      first: `${c.studentName} asks you to check the cone fit${opts.canalName ? ` of canal ${opts.canalName}` : ''} before sealing. Approve it or return it from your review queue.`,
     },
     returned: {
       subject: `Returned to you: ${tooth}, ${date}`,
@@ -66,7 +71,12 @@ export function composeNotice(
   const l = lines[kind];
   return {
     subject: l.subject,
-    text: [l.first, `Tooth: ${tooth}\nOpened: ${date}`, `Open the case: ${link}`, '— Coneline'].join('\n\n'),
+    text: [
+      l.first,
+      `Tooth: ${tooth}\nOpened: ${date}`,
+      kind === 'conefit' ? `Open your review queue: ${link}` : `Open the case: ${link}`,
+      '— Coneline',
+    ].join('\n\n'),
   };
 }
 
@@ -98,6 +108,21 @@ async function noticeCase(trx: Knex, caseId: string): Promise<(NoticeCase & { st
 
 /** Tells each active attending assigned to the case's student that it waits for review. */
 export async function noticeSubmitted(trx: Knex, caseId: string, at: string): Promise<void> {
+  await noticeAttendings(trx, caseId, 'submitted', at);
+}
+
+/** Tells each active attending assigned to the case's student that a canal's cone fit waits for their check. */
+export async function noticeConeFitRequested(trx: Knex, caseId: string, canalName: string, at: string): Promise<void> {
+  await noticeAttendings(trx, caseId, 'conefit', at, canalName);
+}
+
+async function noticeAttendings(
+  trx: Knex,
+  caseId: string,
+  kind: 'submitted' | 'conefit',
+  at: string,
+  canalName?: string,
+): Promise<void> {
   const c = await noticeCase(trx, caseId);
   if (!c) return;
   const attendings = (await trx('assignments')
@@ -107,15 +132,15 @@ export async function noticeSubmitted(trx: Knex, caseId: string, at: string): Pr
     .select('users.id')) as { id: number }[];
   const clinic = clinicFromEnv();
   const publicUrl = publicUrlFromEnv();
-  const n = composeNotice('submitted', c, { clinic, publicUrl });
-  for (const a of attendings) await enqueueMail(trx, { recipientId: a.id, caseId, kind: 'submitted', ...n }, at);
+  const n = composeNotice(kind, c, { clinic, publicUrl, canalName });
+  for (const a of attendings) await enqueueMail(trx, { recipientId: a.id, caseId, kind, ...n }, at);
 }
 
 /** Tells the student of a return (any checkpoint), the final approval or a reopening. */
 export async function noticeStudent(
   trx: Knex,
   caseId: string,
-  kind: Exclude<NoticeKind, 'submitted'>,
+  kind: Exclude<NoticeKind, 'submitted' | 'conefit'>,
   at: string,
   detail: { checkpoint?: NoticeCheckpoint; canalName?: string | null } = {},
 ): Promise<void> {

@@ -16,6 +16,7 @@ import {
   type CanalResult,
   type CaseAction,
   type CaseState,
+  type ConeFitSignoff,
   type Finding,
   type LogEvent,
   type Tolerances,
@@ -69,6 +70,45 @@ async function eventsFor(
     else byCanal.get(r.canal_id)?.push(rowToEvent(r));
   }
   return { caseLevel, byCanal };
+}
+
+/**
+ * What the rules need besides the events for `cone-fit-not-approved`, by canal: the canal's
+ * `cone-fit` sign-offs, and when the server received its cone-fit records (docs/review.md).
+ * Read only while `requireConeFitApproval` is on (the check judges nothing otherwise), so the
+ * hot path of sync pays nothing for it.
+ */
+async function canalReviews(
+  k: Knex,
+  caseId: string,
+  canalIds: readonly string[],
+  judge: Judge,
+): Promise<Map<string, { coneFit: ConeFitSignoff[]; received: Record<string, string> }>> {
+  const out = new Map(
+    canalIds.map((id) => [id, { coneFit: [] as ConeFitSignoff[], received: {} as Record<string, string> }]),
+  );
+  if (!(judge.tolerances.requireConeFitApproval >= 1)) return out;
+  const signoffs = (await inChunks(canalIds, (chunk) =>
+    k('signoffs')
+      .select('canal_id', 'decision', 'created_at')
+      .where({ case_id: caseId, checkpoint: 'cone-fit' })
+      .whereIn('decision', ['approved', 'returned'])
+      .whereIn('canal_id', chunk)
+      .orderBy('id'),
+  )) as { canal_id: string; decision: ConeFitSignoff['decision']; created_at: string }[];
+  for (const r of signoffs) out.get(r.canal_id)?.coneFit.push({ decision: r.decision, at: r.created_at });
+  const records = (await inChunks(canalIds, (chunk) =>
+    k('events')
+      .select('id', 'canal_id', 'received_at')
+      .where({ case_id: caseId })
+      .whereIn('type', ['conefit.requested', 'conefit.approvedAtChair'])
+      .whereIn('canal_id', chunk),
+  )) as { id: string; canal_id: string; received_at: string }[];
+  for (const r of records) {
+    const review = out.get(r.canal_id);
+    if (review) review.received[r.id] = r.received_at;
+  }
+  return out;
 }
 
 type StoredFinding = Pick<FindingRow, 'canal_id' | 'code' | 'severity' | 'event_id' | 'message'>;
@@ -132,7 +172,8 @@ function diffHistory(
 
 /**
  * Judges the given canals of one case and stores what the rules make of them; answers their
- * results (without the case's review status). Each canal is evaluated with its own events and
+ * results (without the case's review status). The rules see each canal's events and, for the
+ * cone-fit check, its `cone-fit` sign-offs (a sign-off calls this too: reviews.ts). Each canal is evaluated with its own events and
  * the case-level ones only, so a batch that touched one canal reads and judges that canal.
  */
 export async function projectCanals(
@@ -144,6 +185,7 @@ export async function projectCanals(
   const ids = [...canalIds];
   if (ids.length === 0) return [];
   const { caseLevel, byCanal } = await eventsFor(k, caseId, ids);
+  const reviews = await canalReviews(k, caseId, ids, judge);
   const stored = groupBy(
     (await inChunks(ids, (chunk) =>
       k('findings')
@@ -167,7 +209,12 @@ export async function projectCanals(
   const clear: number[] = [];
   const out: CanalResult[] = [];
   for (const canalId of ids) {
-    const result = evaluateCanal(canalId, [...caseLevel, ...(byCanal.get(canalId) ?? [])], judge.tolerances);
+    const result = evaluateCanal(
+      canalId,
+      [...caseLevel, ...(byCanal.get(canalId) ?? [])],
+      judge.tolerances,
+      reviews.get(canalId),
+    );
     const findings = result?.findings ?? [];
     diffHistory(canalId, open.get(canalId) ?? [], findings, judge.at, raise, clear);
     const before = stored.get(canalId) ?? [];

@@ -21,7 +21,7 @@ import { audit } from './audit';
 import { REMOVED } from './canal-store';
 import { noticeStudent } from './mail-notices';
 import { kickMail } from './mail-worker';
-import { reviewCase } from './projection';
+import { currentJudge, projectCanals, reviewCase } from './projection';
 import type { Answer } from './request-ids';
 import type { ReopenInput, SignoffInput } from './review-bodies';
 import type { SignoffRow } from './tables';
@@ -211,6 +211,10 @@ export async function signOff(
     const signoffId = (inserted as { id: number }).id;
     if (action === 'approve' || action === 'return') await reviewCase(trx, caseId, action, at);
     else await trx('cases').where({ id: caseId }).update({ updated_at: trx.fn.now() });
+    // A cone-fit decision may open or clear the canal's cone-fit-not-approved: the canal is
+    // judged again now, with no event from the tablet (docs/review.md).
+    if (input.checkpoint === 'cone-fit' && input.canalId !== undefined)
+      await projectCanals(trx, caseId, [input.canalId], await currentJudge(trx, at));
     await audit(trx, user.id, 'case.signoff', 'case', caseId, {
       signoff: signoffId,
       checkpoint: input.checkpoint,

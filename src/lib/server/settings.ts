@@ -27,7 +27,7 @@ export const SETTING_DEFS = Object.freeze({
       {
         default: DEFAULT_TOLERANCES[key],
         ...TOLERANCE_RANGES[key],
-        whole: key === 'minAccessoryCones',
+        whole: key === 'minAccessoryCones' || key === 'requireConeFitApproval',
         doc: `A tolerance of the checks (docs/rules.md, "Tolerances").`,
       },
     ]),

@@ -58,6 +58,8 @@ export interface Known {
    * it was received): its withdrawal is then refused.
    */
   submissions: Map<string, LatestSubmission>;
+  /** The ids (as written in events) of the attendings assigned to this student; read only for a batch that names one. */
+  attendings: Set<string>;
 }
 
 export interface LatestSubmission {
@@ -120,9 +122,16 @@ export function refusal(e: LogEvent, known: Known): Refusal | null {
     if (!canal || !ours) return UNKNOWN_CANAL;
     if (canal.caseId !== e.caseId) return { error: 'this canal belongs to another case' };
   }
+  // An approval at the chair names an attending of the student's (docs/review.md): the same
+  // words whether the id is nobody's, a student's or another student's attending.
+  if (e.type === 'conefit.approvedAtChair' && !known.attendings.has(e.data.attendingId))
+    return { error: NOT_YOUR_ATTENDING };
   const ref = (e.data as { eventId?: unknown }).eventId;
   return typeof ref === 'string' ? targetRefusal(e, ref, known) : null;
 }
+
+export const NOT_YOUR_ATTENDING =
+  'attendingId must name an attending assigned to you: only they can approve your cone fit at the chair; pick one of your attendings';
 
 /**
  * What an event does to its case's lifecycle: submit it, withdraw its latest submission

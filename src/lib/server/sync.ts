@@ -20,6 +20,7 @@ import {
 import { isRefusal, next } from '../rules/index';
 import { loadTallies } from './sync-limits';
 import { kickMail } from './mail-worker';
+import { noticeConeFitRequested } from './mail-notices';
 import { REMOVED, rowToEvent, UNFILLED_SQL, type EventRow } from './canal-store';
 import type { CaseRow } from './tables';
 
@@ -104,9 +105,14 @@ async function loadKnown(trx: Knex, userId: number, parsed: Parsed[], refused: S
     cases.filter((c) => c.student_id === userId).map((c) => c.id),
   );
   const submissions = await latestSubmissions(trx, caseRows);
+  // Only asked when the batch records an approval at the chair.
+  const attendings = events.some((e) => e.type === 'conefit.approvedAtChair')
+    ? ((await trx('assignments').select('attending_id').where({ student_id: userId })) as { attending_id: number }[])
+    : [];
   return {
     userId,
     submissions,
+    attendings: new Set(attendings.map((a) => String(a.attending_id))),
     stored: new Map(stored.map((r) => [r.id, r])),
     kept: new Map(),
     cases: new Map(cases.map((c) => [c.id, c])),
@@ -196,6 +202,8 @@ export async function ingestBatch(
     const touched = new Map<string, Set<string> | 'all'>();
     const submittedCases = new Set<string>();
     const withdrawnCases = new Set<string>();
+    /** Cone-fit requests stored by this batch, one per canal (the latest): their attendings are told. */
+    const requests = new Map<string, LogEvent>();
     const waitsForReview = (e: LogEvent) =>
       known.cases.get(e.caseId)?.review_status === 'submitted' && lifecycleAction(e, known) === 'record';
     const receivedAt = judge.at;
@@ -270,6 +278,7 @@ export async function ingestBatch(
       });
       results[index] = { id: e.id, status: 'stored' };
       if (e.type === 'case.submitted') submittedCases.add(e.caseId);
+      if (e.type === 'conefit.requested') requests.set(e.canalId!, e);
       const t = touched.get(e.caseId);
       if (!e.canalId) touched.set(e.caseId, 'all');
       else if (t !== 'all') touched.set(e.caseId, (t ?? new Set()).add(e.canalId));
@@ -291,13 +300,23 @@ export async function ingestBatch(
       const moves = { submitted: submittedCases.has(caseId), withdrawn: withdrawnCases.has(caseId) };
       canals.push(...(await projectCase(trx, caseId, which, moves, judge, userId)));
     }
+    // The attendings hear of a cone-fit request in the transaction that stores it, unless the
+    // batch withdrew it again (a tap undone before the tablet was back online).
+    const voided = new Set(
+      toInsert.filter((r) => r.type === 'event.voided').map((r) => JSON.parse(r.data_json as string).eventId as string),
+    );
+    for (const [canalId, e] of requests) {
+      if (voided.has(e.id)) continue;
+      const name = canals.find((c) => c.canalId === canalId)?.state.name ?? '';
+      await noticeConeFitRequested(trx, e.caseId, name, receivedAt);
+    }
     return {
       contractVersion: CONTRACT_VERSION,
       results: results.map((r, i) => r ?? { id: idOf(rawEvents[i]), status: 'rejected', error: 'not processed' }),
       canals,
     };
   });
-  // A submission wrote its notices in the transaction; they go now that it committed.
+  // A submission or a cone-fit request wrote its notices in the transaction; they go now that it committed.
   kickMail();
   return answer;
 }

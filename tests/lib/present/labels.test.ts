@@ -73,6 +73,8 @@ const SAMPLES: { type: EventType; data: object }[] = [
   { type: 'case.submitted', data: {} },
   { type: 'compaction.finished', data: {} },
   { type: 'case.discarded', data: { reason: 'Opened for the wrong tooth' } },
+  { type: 'conefit.requested', data: {} },
+  { type: 'conefit.approvedAtChair', data: { attendingId: '4' } },
 ];
 
 describe('the present module', () => {

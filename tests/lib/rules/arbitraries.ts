@@ -220,6 +220,8 @@ function dataFor(type: EventType, ids: string[]): fc.Arbitrary<Record<string, un
       return fc.constant({ text: 'note' });
     case 'case.discarded':
       return fc.constant({ reason: 'opened by mistake' });
+    case 'conefit.approvedAtChair':
+      return fc.constantFrom({ attendingId: '4' }, { attendingId: '17' });
     default:
       return fc.constant({});
   }

@@ -21,8 +21,8 @@ const error = (r: unknown) => {
 
 describe('EVENT_TYPES', () => {
   it('lists every type of the sync contract', () => {
-    expect(EVENT_TYPES).toHaveLength(23);
-    expect(new Set(EVENT_TYPES).size).toBe(23);
+    expect(EVENT_TYPES).toHaveLength(25);
+    expect(new Set(EVENT_TYPES).size).toBe(25);
   });
 });
 

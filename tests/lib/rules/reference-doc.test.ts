@@ -31,11 +31,11 @@ describe('FINDINGS', () => {
   it('holds exactly the codes and severities of docs/rules.md’s table, in its order', () => {
     const table = readFileSync(docPath, 'utf8');
     const rows = [...table.matchAll(/^\| `([a-z-]+)` \| (stop|caution|note) \|/gm)].map((m) => [m[1], m[2]]);
-    expect(rows).toHaveLength(33);
+    expect(rows).toHaveLength(34);
     expect(FINDING_CODES.map((c) => [c, FINDINGS[c].severity])).toEqual(rows);
   });
-  it('has 33 codes, each with a title, a trigger and a source', () => {
-    expect(FINDING_CODES).toHaveLength(33);
+  it('has 34 codes, each with a title, a trigger and a source', () => {
+    expect(FINDING_CODES).toHaveLength(34);
     for (const c of FINDING_CODES) {
       expect(FINDINGS[c].title.length, c).toBeGreaterThan(0);
       expect(FINDINGS[c].raisedWhen.length, c).toBeGreaterThan(0);
@@ -45,7 +45,7 @@ describe('FINDINGS', () => {
 });
 
 describe('DEFAULT_TOLERANCES', () => {
-  it('holds docs/rules.md’s defaults: 4, 1.0, 0.5, 1.0, 2.0, 0.5, 3, 12, 2', () => {
+  it('holds docs/rules.md’s defaults: 4, 1.0, 0.5, 1.0, 2.0, 0.5, 3, 12, 2, 0', () => {
     expect(DEFAULT_TOLERANCES).toEqual({
       cwlUnusualMarginMm: 4,
       taperShortMarginMm: 1,
@@ -56,6 +56,7 @@ describe('DEFAULT_TOLERANCES', () => {
       minAccessoryCones: 3,
       fallbackStopDepthMm: 12,
       fillShortLimitMm: 2,
+      requireConeFitApproval: 0,
     });
   });
 });

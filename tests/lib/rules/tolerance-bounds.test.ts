@@ -5,6 +5,7 @@ import { describe, expect, it } from 'vitest';
 import {
   canalThirds,
   DEFAULT_TOLERANCES,
+  evaluateCanal,
   TOLERANCE_RANGES,
   toleranceInRange,
   type Tolerances,
@@ -40,6 +41,16 @@ describe('docs/rules.md’s tolerance table', () => {
 // average 21 mm (memory), CWL 21 mm: taper check at 20, first spreader at 19.5, master cone 21.
 describe('the rules at the bounds of their tolerances', () => {
   const R = TOLERANCE_RANGES;
+
+  it('cone-fit-not-approved: 0 never stops a canal sealed unapproved; 1 stops it', () => {
+    const stop = (v: number) => {
+      const log = canal();
+      const r = evaluateCanal(log.canalId, log.events, { requireConeFitApproval: v }, { coneFit: [] });
+      return r === null ? -1 : only(r, 'cone-fit-not-approved').length;
+    };
+    expect(stop(R.requireConeFitApproval.min)).toBe(0);
+    expect(stop(R.requireConeFitApproval.max)).toBe(1);
+  });
 
   it('cwl-unusual-for-tooth: margin 1 mm notes 22.5 but not 22; margin 10 mm notes 31.5 but not 31', () => {
     const note = (cwlMm: number, m: number) =>

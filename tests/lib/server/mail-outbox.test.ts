@@ -174,4 +174,12 @@ describe('composeNotice', () => {
     });
     expect(n.text).toMatch(/returned the fill check of canal MB/);
   });
+
+  it('asks the attending to check a cone fit from the review queue, naming the canal and not the case page', () => {
+    const n = composeNotice('conefit', c, { clinic: LONDON, publicUrl: PUBLIC_URL, canalName: 'D' });
+    expect(n.subject).toBe('Cone fit to check: tooth 46 (patient), 3 Dec 2026');
+    expect(n.text).toContain('Ana Student asks you to check the cone fit of canal D');
+    expect(n.text).toContain(`${PUBLIC_URL}/review`);
+    expect(n.text).not.toContain(`/cases/${c.id}`);
+  });
 });

@@ -1,7 +1,9 @@
 import type { APIRoute } from 'astro';
 import { CONTRACT_VERSION, type MeAnswer } from '../../../lib/contract';
 import { config } from '../../../lib/server/config';
+import { db } from '../../../lib/server/db';
 import { demoMode } from '../../../lib/server/demo-mode';
+import { chairsideFacts } from '../../../lib/server/me';
 import { json, jsonError } from '../../../lib/server/http';
 
 export const GET: APIRoute = async ({ locals }) => {
@@ -17,6 +19,8 @@ export const GET: APIRoute = async ({ locals }) => {
     demo: await demoMode(),
     clinic: config().clinic,
     contractVersion: CONTRACT_VERSION,
+    // The student's attendings and the cone-fit setting, kept by the tablet for offline use.
+    ...(await chairsideFacts(await db(), user)),
   };
   return json(me);
 };
