@@ -18,24 +18,27 @@ const SRC = fileURLToPath(new URL('..', import.meta.url));
 const COPY = '?calculators-copy';
 
 /**
- * A Vite plugin: in the browser build, a module of `src/` imported from `islandDir` (or from
- * one of its copies) is loaded as a copy of its own. Modules in `islandDir` itself and
- * packages are left alone.
- * @param {string} islandDir folder of the island, relative to src/
+ * A Vite plugin: in the browser build, a module of `src/` imported from one of `islandDirs`
+ * (or from one of their copies) is loaded as a copy of its own. Modules in the island folders
+ * themselves and packages are left alone. The director's screens (components/admin/) take
+ * copies too, for the same reason as the calculators: they import the rules core's tolerances
+ * and the clinic's time formatting, which the chairside loads on first paint.
+ * @param {string[]} islandDirs folders of the islands, relative to src/
  * @returns {import('vite').Plugin}
  */
-export function ownCopies(islandDir = 'components/calculators/') {
-  const island = SRC + islandDir;
+export function ownCopies(islandDirs = ['components/calculators/', 'components/admin/']) {
+  const islands = islandDirs.map((d) => SRC + d);
+  const inIsland = (/** @type {string} */ id) => islands.some((i) => id.startsWith(i));
   return {
     name: 'coneline:own-copies',
     enforce: 'pre',
     apply: 'build',
     async resolveId(source, importer, options) {
       if (!importer || options.ssr || this.environment?.config.consumer === 'server') return null;
-      if (!importer.startsWith(island) && !importer.endsWith(COPY)) return null;
+      if (!inIsland(importer) && !importer.endsWith(COPY)) return null;
       const resolved = await this.resolve(source, importer, { ...options, skipSelf: true });
       if (!resolved || resolved.external || resolved.id.includes('?')) return resolved;
-      if (!resolved.id.startsWith(SRC) || resolved.id.startsWith(island)) return resolved;
+      if (!resolved.id.startsWith(SRC) || inIsland(resolved.id)) return resolved;
       return { ...resolved, id: resolved.id + COPY };
     },
   };

@@ -27,7 +27,7 @@ interface Ids {
   canalId: string;
 }
 interface Row {
-  method: 'GET' | 'POST';
+  method: 'GET' | 'POST' | 'PUT';
   path: (ids: Ids) => string;
   body?: unknown;
   /** The status each actor gets. */
@@ -68,7 +68,18 @@ const MATRIX_ID = {
   reopen: '00000000-0000-4000-8000-00000000a11d',
   comments: '00000000-0000-4000-8000-00000000a11e',
   mail: '00000000-0000-4000-8000-00000000a11f',
+  settings: '00000000-0000-4000-8000-00000000a120',
 };
+
+/** Directors only: 401 for anonymous API calls (302 for pages), 403 for every other role. */
+const directorOnly = (status: number, anonymous: number): Record<Actor, number> => ({
+  anonymous,
+  owner: 403,
+  otherStudent: 403,
+  assigned: 403,
+  unassigned: 403,
+  director: status,
+});
 
 /** One row per route pattern (as Astro names it). */
 const MATRIX: Record<string, Row[]> = {
@@ -83,6 +94,16 @@ const MATRIX: Record<string, Row[]> = {
       expect: { anonymous: 302, owner: 403, otherStudent: 403, assigned: 403, unassigned: 403, director: 200 },
     },
   ],
+  // Attendings may read the settings; only a director changes them (docs/settings.md).
+  '/admin/settings': [
+    {
+      method: 'GET',
+      path: () => '/admin/settings',
+      variants: true,
+      expect: { anonymous: 302, owner: 403, otherStudent: 403, assigned: 200, unassigned: 200, director: 200 },
+    },
+  ],
+  '/admin/audit': [{ method: 'GET', path: () => '/admin/audit', variants: true, expect: directorOnly(200, 302) }],
   '/cases/[caseId]': [{ method: 'GET', path: (i) => `/cases/${i.caseId}`, expect: readers(302), variants: true }],
   // Static and prerendered like the chairside shell, with no data in it: open to anyone.
   '/calculators': [{ method: 'GET', path: () => '/calculators', expect: signedIn(200, 200) }],
@@ -130,6 +151,30 @@ const MATRIX: Record<string, Row[]> = {
       body: { id: MATRIX_ID.comments, canalId: '00000000-0000-4000-8000-00000000abcd', text: 'access matrix' },
       variants: true,
       expect: { anonymous: 401, owner: 400, otherStudent: 404, assigned: 400, unassigned: 404, director: 400 },
+    },
+  ],
+  '/api/audit': [{ method: 'GET', path: () => '/api/audit', variants: true, expect: directorOnly(200, 401) }],
+  '/api/audit.csv': [{ method: 'GET', path: () => '/api/audit.csv', variants: true, expect: directorOnly(200, 401) }],
+  '/api/settings': [
+    { method: 'GET', path: () => '/api/settings', expect: signedIn(200, 401) },
+    // A name that is no setting: refused before anything is stored.
+    {
+      method: 'PUT',
+      path: () => '/api/settings',
+      body: { id: MATRIX_ID.settings, values: { noSuchSetting: 1 } },
+      variants: true,
+      expect: directorOnly(400, 401),
+    },
+  ],
+  '/api/settings/recompute': [
+    { method: 'GET', path: () => '/api/settings/recompute', variants: true, expect: directorOnly(200, 401) },
+    // Not a request id: refused before anything starts.
+    {
+      method: 'POST',
+      path: () => '/api/settings/recompute',
+      body: { id: 'x' },
+      variants: true,
+      expect: directorOnly(400, 401),
     },
   ],
   '/api/health': [{ method: 'GET', path: () => '/api/health', expect: signedIn(200, 200) }],

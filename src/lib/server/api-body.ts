@@ -8,12 +8,14 @@ export type Parsed<T> = { ok: true; value: T; raw: unknown } | { ok: false; resp
 
 /**
  * The body of a state-changing JSON request checked against `schema`: 403 from another origin,
- * 415 when not JSON, 413 past `maxBytes`, 400 with the first problem in plain words.
+ * 415 when not JSON, 413 past `maxBytes`, 400 with the first problem in plain words (and, when
+ * `fieldOf` names it, the field it is about as `field`).
  */
 export async function parseJsonBody<S extends z.ZodTypeAny>(
   request: Request,
   schema: S,
   maxBytes = 16_384,
+  fieldOf?: (error: z.ZodError) => string | undefined,
 ): Promise<Parsed<z.infer<S>>> {
   const fail = (status: number, error: string): Parsed<z.infer<S>> => ({
     ok: false,
@@ -31,6 +33,12 @@ export async function parseJsonBody<S extends z.ZodTypeAny>(
     return fail(400, 'The body is not valid JSON.');
   }
   const input = schema.safeParse(raw);
-  if (!input.success) return fail(400, formatZodError(input.error));
+  if (!input.success) {
+    const field = fieldOf?.(input.error);
+    return {
+      ok: false,
+      response: jsonError(400, formatZodError(input.error), field === undefined ? undefined : { field }),
+    };
+  }
   return { ok: true, value: input.data as z.infer<S>, raw };
 }
