@@ -71,7 +71,12 @@ export function RecomputePanel({ clinic, watch }: Props) {
       >
         Recompute all canals
       </button>
-      <div className="mt-4" data-testid="recompute-status" data-finished={finished ? 'true' : 'false'}>
+      <div
+        className="mt-4"
+        data-testid="recompute-status"
+        data-finished={finished ? 'true' : 'false'}
+        data-started-at={status?.startedAt ?? ''}
+      >
         {status && (
           <>
             <label htmlFor="recompute-progress" className="block font-bold">
