@@ -45,6 +45,8 @@ const publicHost = env.PUBLIC_HOST?.trim().toLowerCase() || undefined;
 env.ASTRO_NODE_AUTOSTART = 'disabled';
 const outDir = resolve(root, env.ASTRO_OUT_DIR ?? 'dist');
 const { handler } = await import(pathToFileURL(resolve(outDir, 'server/entry.mjs')).href);
+/** Set by the app once its middleware has loaded (src/lib/server/fast-lane.ts). */
+const FAST_LANE = Symbol.for('coneline.fast-lane');
 
 /** After a timeout has answered, whatever the handler writes later goes nowhere. */
 function silence(res) {
@@ -84,13 +86,19 @@ function listener(req, res) {
   timer.unref();
   res.once('close', () => clearTimeout(timer));
 
-  Promise.resolve(handler(req, res)).catch((err) => {
-    console.error(`[server] ${req.method} request failed: ${err?.name ?? 'Error'}`);
-    if (!res.headersSent) {
-      res.writeHead(500, { 'Content-Type': 'application/json', 'Cache-Control': 'no-store' });
-      res.end(JSON.stringify({ error: 'The server could not answer this request.' }));
-    }
-  });
+  // The canal read may be answered by the app's fast lane (src/lib/server/fast-lane.ts),
+  // which hands back anything it does not answer itself.
+  const fast = req.url?.startsWith('/api/canals/') ? globalThis[FAST_LANE] : undefined;
+  const answered = fast ? fast(req, res) : Promise.resolve(false);
+  answered
+    .then((done) => (done ? undefined : handler(req, res)))
+    .catch((err) => {
+      console.error(`[server] ${req.method} request failed: ${err?.name ?? 'Error'}`);
+      if (!res.headersSent) {
+        res.writeHead(500, { 'Content-Type': 'application/json', 'Cache-Control': 'no-store' });
+        res.end(JSON.stringify({ error: 'The server could not answer this request.' }));
+      }
+    });
 }
 
 /** The Host header's name without its port, lower-cased. */

@@ -3,9 +3,13 @@
 // response by the server entry (scripts/server.mjs), static files included.
 import { defineMiddleware } from 'astro:middleware';
 import { jsonError } from './lib/server/http';
+import { offerFastLane } from './lib/server/fast-lane';
 import { isApiRoute, isPublicRoute, rolesFor } from './lib/server/routes';
 import { userFromSession } from './lib/server/session';
 import { sessionOf } from './lib/server/session-cache';
+
+// The API's hot canal read may skip Astro's pipeline when it is ordinary (fast-lane.ts).
+offerFastLane();
 
 /** Pages for a signed-in user hold health records: no copy in the browser's cache. */
 function noStore(res: Response): Response {

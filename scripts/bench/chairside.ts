@@ -15,7 +15,7 @@ import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { gzipSync } from 'node:zlib';
-import { chromium, type Page } from 'playwright-core';
+import { chromium, type Locator, type Page } from 'playwright-core';
 import { prepareDb } from '../lib/dbtasks.ts';
 import { startServer } from '../lib/server-process.ts';
 import { DEMO } from '../lib/api-client.ts';
@@ -135,14 +135,20 @@ try {
     }
   });
   await page.reload({ waitUntil: 'networkidle' });
-  await page.getByTestId('new-case').click();
+  // Screens ignore taps for a moment after they change (TAP_GUARD_MS): wait it out, untimed.
+  const settledTap = async (target: Locator) => {
+    await target.waitFor();
+    await page.waitForFunction(() => !document.querySelector('[data-testid="screen"][data-armed="false"]'));
+    await target.click();
+  };
+  await settledTap(page.getByTestId('new-case'));
 
   // A training block, one canal, up to the seated master cone.
-  await page.getByRole('button', { name: 'Training block' }).click();
-  await page.getByTestId('canals-confirm').click();
-  await page.getByTestId('ruler-cwl').locator('button[data-mark]').click();
-  await page.getByTestId('maf-30').click();
-  await page.getByTestId('save-canal').click();
+  await settledTap(page.getByRole('button', { name: 'Training block' }));
+  await settledTap(page.getByTestId('canals-confirm'));
+  await settledTap(page.getByTestId('ruler-cwl').locator('button[data-mark]'));
+  await settledTap(page.getByTestId('maf-30'));
+  await settledTap(page.getByTestId('save-canal'));
   await answer(page, 'seat', 'Seats and holds');
   await ruler(page, 'taper');
   await answer(page, 'rinse', 'Done');

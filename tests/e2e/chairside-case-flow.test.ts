@@ -10,6 +10,7 @@ import { launchBrowser } from '../helpers/browser';
 import * as chairside from '../helpers/chairside';
 import { DEMO } from '../helpers/client';
 import { startServer, type TestServer } from '../helpers/server';
+import { tapScreen } from '../helpers/chairside';
 
 let server: TestServer;
 let browser: Browser;
@@ -97,15 +98,15 @@ describe('the case around the canals on the tablet', () => {
   it('asks why before it takes a new CWL, and the reason shows in the timeline', async () => {
     const { context, page } = await newSession(DEMO.priya);
     await setUpDistal36(page);
-    await page.getByRole('button', { name: 'Correct the CWL (20.5 mm)' }).click();
+    await tapScreen(page, page.getByRole('button', { name: 'Correct the CWL (20.5 mm)' }));
     await page.getByTestId('cwl-reason-needed').waitFor();
     await expect(page.getByTestId('cwl-ruler').count()).resolves.toBe(0);
-    await page.getByRole('button', { name: 'other' }).click();
+    await tapScreen(page, page.getByRole('button', { name: 'other' }));
     await page.getByRole('textbox', { name: 'Say why' }).fill('New radiograph after the file slipped');
-    await page.getByTestId('cwl-ruler').locator('button[data-mm="21"]').click();
+    await tapScreen(page, page.getByTestId('cwl-ruler').locator('button[data-mm="21"]'));
     await page.getByRole('button', { name: 'Correct the CWL (21.0 mm)' }).waitFor();
     await chairside.armed(page);
-    await page.getByRole('button', { name: /^Timeline/ }).click();
+    await tapScreen(page, page.getByRole('button', { name: /^Timeline/ }));
     await expect(page.getByTestId('timeline').textContent()).resolves.toContain(
       'CWL corrected to 21.0 mm: New radiograph after the file slipped',
     );
@@ -116,23 +117,23 @@ describe('the case around the canals on the tablet', () => {
   it('asks before submitting a case whose canal is unfilled, and submits only when told to', async () => {
     const { context, page } = await newSession(DEMO.priya);
     await setUpDistal36(page);
-    await page.getByRole('button', { name: 'Finish tooth' }).click();
-    await page.getByRole('button', { name: 'Restored', exact: true }).click();
-    await page.getByRole('button', { name: 'Taken', exact: true }).click();
-    await page.getByRole('button', { name: 'Submit for review' }).click();
+    await tapScreen(page, page.getByRole('button', { name: 'Finish tooth' }));
+    await tapScreen(page, page.getByRole('button', { name: 'Restored', exact: true }));
+    await tapScreen(page, page.getByRole('button', { name: 'Taken', exact: true }));
+    await tapScreen(page, page.getByRole('button', { name: 'Submit for review' }));
     const warnings = page.getByTestId('submit-warnings');
     await expect(warnings.textContent()).resolves.toContain('D canal is unfilled');
-    await page.getByRole('button', { name: 'Not yet' }).click();
+    await tapScreen(page, page.getByRole('button', { name: 'Not yet' }));
     await expect(page.getByTestId('submitted').count()).resolves.toBe(0);
-    await page.getByRole('button', { name: 'Submit for review' }).click();
-    await page.getByRole('button', { name: 'Submit anyway' }).click();
+    await tapScreen(page, page.getByRole('button', { name: 'Submit for review' }));
+    await tapScreen(page, page.getByRole('button', { name: 'Submit anyway' }));
     await page.getByTestId('submitted').waitFor();
     expect(await seriousViolations(page)).toEqual([]);
     // While it waits for review the canal takes no steps; withdrawing the submission reopens it.
-    await page.getByTestId('tab-D').click();
+    await tapScreen(page, page.getByTestId('tab-D'));
     await page.getByText('Waiting for review').waitFor();
     await expect(page.locator('[data-testid="step"]').count()).resolves.toBe(0);
-    await page.getByRole('button', { name: 'Withdraw the submission' }).click();
+    await tapScreen(page, page.getByRole('button', { name: 'Withdraw the submission' }));
     await page.locator('[data-testid="step"][data-card="seat"]').waitFor();
     await synced(page);
     const c = await newestCase(DEMO.priya);
@@ -142,18 +143,18 @@ describe('the case around the canals on the tablet', () => {
 
   it('keeps the other picked canals when one set-up is cancelled, and leaves no empty case behind', async () => {
     const { context, page } = await newSession(DEMO.tomas);
-    await page.getByTestId('new-case').click();
-    await page.getByRole('button', { name: 'Extracted tooth' }).click();
-    await page.getByTestId('quadrant-3').click();
-    await page.getByTestId('tooth-36').click();
-    await page.getByTestId('canals-confirm').click();
+    await tapScreen(page, page.getByTestId('new-case'));
+    await tapScreen(page, page.getByRole('button', { name: 'Extracted tooth' }));
+    await tapScreen(page, page.getByTestId('quadrant-3'));
+    await tapScreen(page, page.getByTestId('tooth-36'));
+    await tapScreen(page, page.getByTestId('canals-confirm'));
     // The set-up card loads on first use: wait for it rather than read the title at once.
     await page.locator('#step-title', { hasText: 'Set up the MB canal' }).waitFor();
-    await page.getByRole('button', { name: 'Cancel', exact: true }).click();
+    await tapScreen(page, page.getByRole('button', { name: 'Cancel', exact: true }));
     await page.getByText('Set up the ML canal').waitFor();
-    await page.getByRole('button', { name: 'Cancel', exact: true }).click();
+    await tapScreen(page, page.getByRole('button', { name: 'Cancel', exact: true }));
     await page.getByText('Set up the D canal').waitFor();
-    await page.getByRole('button', { name: 'Cancel', exact: true }).click();
+    await tapScreen(page, page.getByRole('button', { name: 'Cancel', exact: true }));
     // No canal left: the case is discarded and the list shows no case on this tablet.
     await page.getByTestId('new-case').waitFor();
     await expect(page.getByRole('heading', { name: 'On this tablet' }).count()).resolves.toBe(0);
@@ -161,7 +162,7 @@ describe('the case around the canals on the tablet', () => {
     await synced(page);
     expect((await newestCase(DEMO.tomas)).discardedAt).not.toBeNull();
     // Undo brings it back, on the tablet and on the server.
-    await page.getByTestId('undo').click();
+    await tapScreen(page, page.getByTestId('undo'));
     await page.getByRole('heading', { name: 'On this tablet' }).waitFor();
     await synced(page);
     expect((await newestCase(DEMO.tomas)).discardedAt).toBeNull();
@@ -171,9 +172,9 @@ describe('the case around the canals on the tablet', () => {
   it('discards a case opened by mistake from its canal list, with a reason', async () => {
     const { context, page } = await newSession(DEMO.tomas);
     await setUpDistal36(page);
-    await page.getByRole('button', { name: '+ Canal' }).click();
-    await page.getByRole('button', { name: 'Discard this case…' }).click();
-    await page.getByRole('button', { name: 'Wrong tooth' }).click();
+    await tapScreen(page, page.getByRole('button', { name: '+ Canal' }));
+    await tapScreen(page, page.getByRole('button', { name: 'Discard this case…' }));
+    await tapScreen(page, page.getByRole('button', { name: 'Wrong tooth' }));
     await page.getByTestId('new-case').waitFor();
     await synced(page);
     const c = await newestCase(DEMO.tomas);

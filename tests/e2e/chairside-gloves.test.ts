@@ -9,6 +9,7 @@ import { startServer, type TestServer } from '../helpers/server';
 import knexFactory from 'knex';
 import { sqliteOptions } from '../../src/lib/server/knex-options';
 import * as chairside from '../helpers/chairside';
+import { tapScreen } from '../helpers/chairside';
 
 // Invented scenario: an extracted lower left first molar (36), distal canal, CWL 20.5 mm,
 // MAF 35, orifice 9.0 mm from the reference point (so a spreader at 12.5 mm no longer passes
@@ -89,9 +90,9 @@ describe('the chairside island for gloved hands', () => {
     await d.ruler('taper', 19.5);
     await d.answer('radiograph', 'Taken');
     await d.card('rinse');
-    await page.getByRole('button', { name: /^Timeline/ }).click();
+    await tapScreen(page, page.getByRole('button', { name: /^Timeline/ }));
     const row = page.getByTestId('timeline').getByRole('listitem').filter({ hasText: 'Taper check' });
-    await row.getByRole('button', { name: 'Withdraw' }).click();
+    await tapScreen(page, row.getByRole('button', { name: 'Withdraw' }));
     await d.card('taper');
     await expect(
       page.getByTestId('timeline').getByRole('listitem').filter({ hasText: 'Taper check' }).count(),
@@ -113,15 +114,15 @@ describe('the chairside island for gloved hands', () => {
     await expect(
       d.step().getByTestId('ruler').locator('button[data-mm="19.5"]').getAttribute('aria-label'),
     ).resolves.toBe('19.5 millimetres, the CWL less 1 mm');
-    await page.getByRole('button', { name: 'Correct the CWL (20.5 mm)' }).click();
-    await page.getByRole('button', { name: 'apex locator' }).click();
-    await page.getByTestId('cwl-ruler').locator('button[data-mm="21.5"]').click();
+    await tapScreen(page, page.getByRole('button', { name: 'Correct the CWL (20.5 mm)' }));
+    await tapScreen(page, page.getByRole('button', { name: 'apex locator' }));
+    await tapScreen(page, page.getByTestId('cwl-ruler').locator('button[data-mm="21.5"]'));
     await page.getByRole('button', { name: 'Correct the CWL (21.5 mm)' }).waitFor();
     await d.card('taper');
     await expect(
       d.step().getByTestId('ruler').locator('button[data-mm="20.5"]').getAttribute('aria-label'),
     ).resolves.toBe('20.5 millimetres, the CWL less 1 mm');
-    await page.getByRole('button', { name: /^Timeline/ }).click();
+    await tapScreen(page, page.getByRole('button', { name: /^Timeline/ }));
     await expect(page.getByTestId('timeline').textContent()).resolves.toContain('CWL corrected to 21.5');
     expect(await undersized(page)).toEqual([]);
     expect(await seriousViolations(page)).toEqual([]);
@@ -172,7 +173,7 @@ describe('the chairside island for gloved hands', () => {
       await k.destroy();
     }
     await context.setOffline(false);
-    await page.getByRole('button', { name: 'Sync now' }).click();
+    await tapScreen(page, page.getByRole('button', { name: 'Sync now' }));
     const refused = page.getByTestId('rejected');
     await refused.waitFor({ timeout: 30_000 });
     await expect(refused.textContent()).resolves.toContain('signed off');
@@ -181,23 +182,23 @@ describe('the chairside island for gloved hands', () => {
     expect(await seriousViolations(page)).toEqual([]);
     const items = await refused.getByRole('listitem').allTextContents();
     expect(items, items.join(' / ')).toHaveLength(1);
-    await refused.getByRole('button', { name: 'Dismiss' }).click();
+    await tapScreen(page, refused.getByRole('button', { name: 'Dismiss' }));
     await refused.waitFor({ state: 'detached' });
     await context.close();
   });
 
   it("opens a patient's tooth by chart number, the only typed entry", async () => {
     const { context, page } = await newSession(768, 1024);
-    await page.getByTestId('new-case').click();
-    await page.getByRole('button', { name: 'Patient' }).click();
-    await page.getByTestId('quadrant-2').click();
-    await page.getByTestId('tooth-21').click();
+    await tapScreen(page, page.getByTestId('new-case'));
+    await tapScreen(page, page.getByRole('button', { name: 'Patient' }));
+    await tapScreen(page, page.getByTestId('quadrant-2'));
+    await tapScreen(page, page.getByTestId('tooth-21'));
     await page.getByRole('textbox', { name: 'Chart number' }).fill('  TST-5521 ');
-    await page.getByRole('button', { name: 'Open case' }).click();
-    await page.getByTestId('canals-confirm').click();
-    await page.getByTestId('ruler-cwl').locator('button[data-mm="22.5"]').click();
-    await page.getByTestId('maf-50').click();
-    await page.getByTestId('save-canal').click();
+    await tapScreen(page, page.getByRole('button', { name: 'Open case' }));
+    await tapScreen(page, page.getByTestId('canals-confirm'));
+    await tapScreen(page, page.getByTestId('ruler-cwl').locator('button[data-mm="22.5"]'));
+    await tapScreen(page, page.getByTestId('maf-50'));
+    await tapScreen(page, page.getByTestId('save-canal'));
     await page.locator('[data-testid="step"][data-card="seat"]').waitFor();
     await page.locator('[data-testid="sync-state"][data-state="synced"]').waitFor({ timeout: 30_000 });
     const k = knexFactory(sqliteOptions(server.dbFile));

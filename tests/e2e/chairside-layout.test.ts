@@ -6,6 +6,7 @@ import { launchBrowser } from '../helpers/browser';
 import { DEMO } from '../helpers/client';
 import { startServer, type TestServer } from '../helpers/server';
 import * as chairside from '../helpers/chairside';
+import { tapScreen } from '../helpers/chairside';
 
 // Invented scenario: an extracted lower left first molar (36), distal canal, CWL 20.5 mm,
 // MAF 35, orifice 9.0 mm from the reference point (so a spreader at 12.5 mm no longer passes
@@ -59,7 +60,7 @@ describe('the chairside island for gloved hands', () => {
             await page.screenshot({ path: `test-results/chairside-${width}x${height}-${shot}.png` });
         },
       });
-      await page.getByRole('button', { name: 'Finish the tooth' }).click();
+      await tapScreen(page, page.getByRole('button', { name: 'Finish the tooth' }));
       await check();
       await page.screenshot({ path: `test-results/chairside-${width}x${height}-summary.png`, fullPage: true });
       expect([...new Set(problems)]).toEqual([]);

@@ -7,6 +7,7 @@ import { launchBrowser, launchPersistent } from '../helpers/browser';
 import { DEMO } from '../helpers/client';
 import { startServer, type TestServer } from '../helpers/server';
 import * as chairside from '../helpers/chairside';
+import { tapScreen } from '../helpers/chairside';
 
 // Invented scenario: an extracted lower left first molar (36), distal canal, CWL 20.5 mm,
 // MAF 35, orifice 9.0 mm from the reference point (so a spreader at 12.5 mm no longer passes
@@ -110,11 +111,11 @@ describe('the chairside island, offline first', () => {
     const miraIds: string[] = await page.evaluate(readQueuedIds);
     expect(miraIds.length).toBeGreaterThanOrEqual(4);
 
-    await page.getByRole('button', { name: /Sign out/ }).click();
+    await tapScreen(page, page.getByRole('button', { name: /Sign out/ }));
     await page.getByTestId('unsent-warning').waitFor();
-    await page.getByRole('button', { name: 'Sign out anyway' }).click();
+    await tapScreen(page, page.getByRole('button', { name: 'Sign out anyway' }));
     await page.waitForURL((u) => u.pathname === '/signout');
-    await page.getByRole('button', { name: 'Sign out of this device' }).click();
+    await tapScreen(page, page.getByRole('button', { name: 'Sign out of this device' }));
     await page.waitForURL((u) => u.pathname === '/signin');
     await page.unroute('**/api/sync');
 
@@ -123,14 +124,14 @@ describe('the chairside island, offline first', () => {
       if (r.url().endsWith('/api/sync')) sent.push(r.postData() ?? '');
     });
     await openChairside(page, DEMO.tomas);
-    await page.getByTestId('new-case').click();
-    await page.getByRole('button', { name: 'Training block' }).click();
-    await page.getByTestId('canals-confirm').click();
-    await page.getByTestId('ruler-cwl').locator('button[data-mm="18"]').click();
-    await page.getByTestId('maf-30').click();
-    await page.getByTestId('save-canal').click();
+    await tapScreen(page, page.getByTestId('new-case'));
+    await tapScreen(page, page.getByRole('button', { name: 'Training block' }));
+    await tapScreen(page, page.getByTestId('canals-confirm'));
+    await tapScreen(page, page.getByTestId('ruler-cwl').locator('button[data-mm="18"]'));
+    await tapScreen(page, page.getByTestId('maf-30'));
+    await tapScreen(page, page.getByTestId('save-canal'));
     await new Driver(page).answer('seat', 'Seats and holds');
-    await page.getByRole('button', { name: 'Sync now' }).click();
+    await tapScreen(page, page.getByRole('button', { name: 'Sync now' }));
     await page.locator('[data-testid="sync-state"][data-state="synced"]').waitFor({ timeout: 30_000 });
     expect(sent.length).toBeGreaterThan(0);
     for (const body of sent) for (const id of miraIds) expect(body).not.toContain(id);
@@ -138,9 +139,9 @@ describe('the chairside island, offline first', () => {
     expect((await page.evaluate(readQueuedIds)).sort()).toEqual([...miraIds].sort());
 
     // Tomas signs out with everything synced; Mira signs in again and her events go out.
-    await page.getByRole('button', { name: /Sign out/ }).click();
+    await tapScreen(page, page.getByRole('button', { name: /Sign out/ }));
     await page.waitForURL((u) => u.pathname === '/signout');
-    await page.getByRole('button', { name: 'Sign out of this device' }).click();
+    await tapScreen(page, page.getByRole('button', { name: 'Sign out of this device' }));
     await page.waitForURL((u) => u.pathname === '/signin');
     await openChairside(page, DEMO.mira, 'step');
     await page.locator('[data-testid="sync-state"][data-state="synced"]').waitFor({ timeout: 30_000 });

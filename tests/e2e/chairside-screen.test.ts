@@ -10,6 +10,7 @@ import { launchBrowser } from '../helpers/browser';
 import { DEMO } from '../helpers/client';
 import { startServer, type TestServer } from '../helpers/server';
 import * as chairside from '../helpers/chairside';
+import { tapScreen } from '../helpers/chairside';
 
 // Invented scenario: an extracted lower left first molar (36), distal canal, CWL 20.5 mm,
 // MAF 35, orifice 9.0 mm from the reference point; and a training block.
@@ -166,7 +167,7 @@ async function walkCanal(d: CheckingDriver): Promise<void> {
   await d.answer('compact', 'Done');
   await d.answer('clean', 'Done');
   await d.card('done');
-  await page.getByRole('button', { name: /^Timeline/ }).click();
+  await tapScreen(page, page.getByRole('button', { name: /^Timeline/ }));
   await expect(page.getByTestId('timeline').textContent()).resolves.toContain(
     'Seared at the orifice, 1.0 mm below the CEJ',
   );
@@ -183,20 +184,20 @@ describe('the chairside screen', () => {
     'at %i × %i keeps the top bar in one row and each card’s answers and diagram on screen, with clear labels',
     async (width, height) => {
       const { context, page } = await newSession(width, height);
-      await page.getByTestId('new-case').click();
-      await page.getByRole('button', { name: 'Extracted tooth' }).click();
-      await page.getByTestId('quadrant-3').click();
-      await page.getByTestId('tooth-36').click();
-      await page.getByTestId('canal-MB').click();
-      await page.getByTestId('canal-ML').click();
-      await page.getByTestId('canals-confirm').click();
+      await tapScreen(page, page.getByTestId('new-case'));
+      await tapScreen(page, page.getByRole('button', { name: 'Extracted tooth' }));
+      await tapScreen(page, page.getByTestId('quadrant-3'));
+      await tapScreen(page, page.getByTestId('tooth-36'));
+      await tapScreen(page, page.getByTestId('canal-MB'));
+      await tapScreen(page, page.getByTestId('canal-ML'));
+      await tapScreen(page, page.getByTestId('canals-confirm'));
       await expect(page.getByTestId('ruler-cwl').getByTestId('ruler-mark').textContent()).resolves.toContain(
         'the textbook average length less 1 mm',
       );
-      await page.getByTestId('ruler-cwl').locator('button[data-mm="20.5"]').click();
-      await page.getByTestId('maf-35').click();
-      await page.getByTestId('ruler-orifice').locator('button[data-mm="9"]').click();
-      await page.getByTestId('save-canal').click();
+      await tapScreen(page, page.getByTestId('ruler-cwl').locator('button[data-mm="20.5"]'));
+      await tapScreen(page, page.getByTestId('maf-35'));
+      await tapScreen(page, page.getByTestId('ruler-orifice').locator('button[data-mm="9"]'));
+      await tapScreen(page, page.getByTestId('save-canal'));
       const d = new CheckingDriver(page);
       await walkCanal(d);
       await page.screenshot({ path: `test-results/chairside-screen-${width}x${height}-summary.png`, fullPage: true });
@@ -209,13 +210,13 @@ describe('the chairside screen', () => {
 
   it('names a training block’s canal once in every heading, and the tooth with its Universal number', async () => {
     const { context, page } = await newSession(768, 1024);
-    await page.getByTestId('new-case').click();
-    await page.getByRole('button', { name: 'Training block' }).click();
-    await page.getByTestId('canals-confirm').click();
+    await tapScreen(page, page.getByTestId('new-case'));
+    await tapScreen(page, page.getByRole('button', { name: 'Training block' }));
+    await tapScreen(page, page.getByTestId('canals-confirm'));
     await page.getByRole('heading', { name: 'Set up the Main canal' }).waitFor();
-    await page.getByTestId('ruler-cwl').locator('button[data-mark]').click();
-    await page.getByTestId('maf-30').click();
-    await page.getByTestId('save-canal').click();
+    await tapScreen(page, page.getByTestId('ruler-cwl').locator('button[data-mark]'));
+    await tapScreen(page, page.getByTestId('maf-30'));
+    await tapScreen(page, page.getByTestId('save-canal'));
     const d = new CheckingDriver(page);
     await d.card('seat');
     await expect(page.getByRole('complementary', { name: 'Diagram of the Main canal' }).count()).resolves.toBe(1);
@@ -238,9 +239,9 @@ describe('the chairside screen', () => {
     await d.ruler('taper', 19.5);
     await d.card('radiograph');
     await expect(page.getByTestId('just-entered').textContent()).resolves.toContain('19.5 mm');
-    await page.getByRole('button', { name: /^Timeline/ }).click();
+    await tapScreen(page, page.getByRole('button', { name: /^Timeline/ }));
     const row = page.getByTestId('timeline').getByRole('listitem').filter({ hasText: 'MAF seat check' });
-    await row.getByRole('button', { name: 'Withdraw' }).click();
+    await tapScreen(page, row.getByRole('button', { name: 'Withdraw' }));
     await d.card('seat');
     await expect(page.getByTestId('just-entered').count()).resolves.toBe(0);
     await context.close();

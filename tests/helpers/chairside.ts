@@ -37,6 +37,24 @@ export async function armed(page: Page): Promise<void> {
   await page.locator('[data-testid="step"][data-armed="true"]').waitFor({ timeout: 20_000 });
 }
 
+/**
+ * Waits until every guarded screen takes taps (the open-case steps, the canal set-up, the
+ * finishing card ignore taps for TAP_GUARD_MS after they change), then taps.
+ */
+export async function settled(page: Page): Promise<void> {
+  await page.waitForFunction(() => !document.querySelector('[data-testid="screen"][data-armed="false"]'), null, {
+    timeout: 20_000,
+  });
+}
+
+/** A tap on a guarded screen, once it takes taps. */
+export async function tapScreen(page: Page, target: Locator): Promise<void> {
+  // The target first: a screen that loads lazily is guarded from the moment it appears.
+  await target.waitFor({ timeout: 20_000 });
+  await settled(page);
+  await target.click();
+}
+
 export async function openChairside(page: Page, baseUrl: string, email: string, ready = 'new-case'): Promise<void> {
   await signIn(page, baseUrl, email, DEMO.password, '/chairside');
   if (new URL(page.url()).pathname !== '/chairside') await page.goto(`${baseUrl}/chairside`);
@@ -50,17 +68,18 @@ export async function openChairside(page: Page, baseUrl: string, email: string, 
 
 /** Opens tooth 36 with only the distal canal and sets it up (not counted as canal taps). */
 export async function setUpDistal36(page: Page): Promise<void> {
-  await page.getByTestId('new-case').click();
-  await page.getByRole('button', { name: 'Extracted tooth' }).click();
-  await page.getByTestId('quadrant-3').click();
-  await page.getByTestId('tooth-36').click();
-  await page.getByTestId('canal-MB').click();
-  await page.getByTestId('canal-ML').click();
-  await page.getByTestId('canals-confirm').click();
-  await page.getByTestId('ruler-cwl').locator('button[data-mm="20.5"]').click();
-  await page.getByTestId('maf-35').click();
-  await page.getByTestId('ruler-orifice').locator('button[data-mm="9"]').click();
-  await page.getByTestId('save-canal').click();
+  const tap = (target: Locator) => tapScreen(page, target);
+  await tap(page.getByTestId('new-case'));
+  await tap(page.getByRole('button', { name: 'Extracted tooth' }));
+  await tap(page.getByTestId('quadrant-3'));
+  await tap(page.getByTestId('tooth-36'));
+  await tap(page.getByTestId('canal-MB'));
+  await tap(page.getByTestId('canal-ML'));
+  await tap(page.getByTestId('canals-confirm'));
+  await tap(page.getByTestId('ruler-cwl').locator('button[data-mm="20.5"]'));
+  await tap(page.getByTestId('maf-35'));
+  await tap(page.getByTestId('ruler-orifice').locator('button[data-mm="9"]'));
+  await tap(page.getByTestId('save-canal'));
   await page.locator('[data-testid="step"][data-card="seat"][data-armed="true"]').waitFor();
 }
 

@@ -1,4 +1,4 @@
-import { useState } from 'react';
+import { useRef, useState } from 'react';
 import { averageLengthMm, ISO_SIZES, referencePointsFor } from '../../lib/rules/core';
 import { canalTitle, preparationLabel } from '../../lib/present/labels';
 import { newId } from '../../lib/client/ids';
@@ -42,8 +42,11 @@ export function CanalSetup(props: {
 
   const refText = referencePoint === 'other' ? otherPoint.trim() : referencePoint;
   const ready = cwl !== undefined && maf !== undefined && refText !== '';
+  // One canal per "Save": a second tap while the first is being recorded adds nothing.
+  const saving = useRef(false);
   const save = async () => {
-    if (!ready) return;
+    if (!ready || saving.current) return;
+    saving.current = true;
     const canalId = newId();
     const data = {
       name: props.name,
@@ -61,6 +64,7 @@ export function CanalSetup(props: {
       label: `${canalTitle(props.name)} set up`,
       value: `CWL ${mm(cwl)} mm`,
     });
+    saving.current = false;
     if (ev) props.onDone(canalId);
   };
 

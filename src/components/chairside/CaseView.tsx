@@ -5,6 +5,7 @@ import { lockOf } from '../../lib/client/views';
 import { CanalStepper } from './CanalStepper';
 import { CanalTabs } from './CanalTabs';
 import { Later } from './Later';
+import { Guarded } from './useCardGuard';
 
 // Set-up, finishing, discarding and the review lock come once per canal or case: loaded when
 // first shown (see ChairsideApp).
@@ -129,7 +130,10 @@ export function CaseView(props: { info: CaseInfo; tablet: TabletCase }) {
         onFinish={() => setView('finish')}
       />
       <div className="p-3">
-        <Later>{body}</Later>
+        {/* A double tap that changed the screen must not land on what replaced it. */}
+        <Guarded screen={`${lock ?? 'open'}|${showAdd ? 'add' : view}|${queue[0] ?? ''}|${selected?.canalId ?? ''}`}>
+          <Later>{body}</Later>
+        </Guarded>
       </div>
     </div>
   );

@@ -7,6 +7,7 @@ import { useChairside } from '../../lib/client/store';
 import { shownResult } from '../../lib/client/views';
 import { CanalDiagram } from '../shared/CanalDiagram';
 import { Answer, Answers, Chip, ChipGroup, StepCard } from './AnswerButtons';
+import { Guarded } from './useCardGuard';
 import { FindingList } from './FindingList';
 
 const MATERIALS = {
@@ -45,123 +46,126 @@ export function Summary(props: { info: CaseInfo; tablet: TabletCase; locked?: bo
   });
 
   return (
-    <div className="flex flex-col gap-4">
-      {!restored && !locked ? (
-        <StepCard title="Restore the access" hint="Once for the tooth; it counts for every canal.">
-          <ChipGroup label="Restoration">
-            <Chip
-              selected={kind === 'temporary'}
-              onTap={() => {
-                setKind('temporary');
-                setMaterial(undefined);
-              }}
-            >
-              Temporary
-            </Chip>
-            <Chip
-              selected={kind === 'permanent'}
-              onTap={() => {
-                setKind('permanent');
-                setMaterial(undefined);
-              }}
-            >
-              Permanent
-            </Chip>
-          </ChipGroup>
-          <ChipGroup label="Material (optional)">
-            {MATERIALS[kind].map((m) => (
-              <Chip key={m} selected={material === m} onTap={() => setMaterial(material === m ? undefined : m)}>
-                {m}
+    // Recording the restoration moves the radiograph card up under the finger: guard the change.
+    <Guarded screen={`${restored ? 'restored' : ''}|${postOp ? 'post-op' : ''}|${confirming}|${submitted}`}>
+      <div className="flex flex-col gap-4">
+        {!restored && !locked ? (
+          <StepCard title="Restore the access" hint="Once for the tooth; it counts for every canal.">
+            <ChipGroup label="Restoration">
+              <Chip
+                selected={kind === 'temporary'}
+                onTap={() => {
+                  setKind('temporary');
+                  setMaterial(undefined);
+                }}
+              >
+                Temporary
               </Chip>
-            ))}
-          </ChipGroup>
+              <Chip
+                selected={kind === 'permanent'}
+                onTap={() => {
+                  setKind('permanent');
+                  setMaterial(undefined);
+                }}
+              >
+                Permanent
+              </Chip>
+            </ChipGroup>
+            <ChipGroup label="Material (optional)">
+              {MATERIALS[kind].map((m) => (
+                <Chip key={m} selected={material === m} onTap={() => setMaterial(material === m ? undefined : m)}>
+                  {m}
+                </Chip>
+              ))}
+            </ChipGroup>
+            <Answers>
+              <Answer
+                tone="primary"
+                onTap={() =>
+                  void rec('access.restored', { kind, ...(material ? { material } : {}) }, `access restored (${kind})`)
+                }
+              >
+                Restored
+              </Answer>
+            </Answers>
+          </StepCard>
+        ) : restored ? (
+          <p className="text-lg">
+            ✓ Access restored: {restored.data.kind}
+            {restored.data.material ? `, ${restored.data.material}` : ''}
+          </p>
+        ) : null}
+        {tooth &&
+          (!postOp && !locked ? (
+            <StepCard title="Post-operative radiograph taken?">
+              <Answers>
+                <Answer
+                  tone="primary"
+                  onTap={() => void rec('radiograph.taken', { purpose: 'post-op' }, 'post-op radiograph')}
+                >
+                  Taken
+                </Answer>
+              </Answers>
+            </StepCard>
+          ) : postOp ? (
+            <p className="text-lg">✓ Post-operative radiograph taken</p>
+          ) : null)}
+        <div className="grid gap-4 landscape:grid-cols-2">
+          {shownCanals.map(({ c, shown }) => {
+            return (
+              <section
+                key={c.canalId}
+                aria-label={canalTitle(c.name)}
+                className="bg-white rounded-2xl border border-line p-3"
+              >
+                <h2 className="text-xl font-bold">
+                  {canalTitle(c.name)}
+                  {shown.result && isUnfilled(shown.result.state) ? (
+                    <span className="ml-2 text-base font-normal">· unfilled</span>
+                  ) : null}
+                </h2>
+                <div className="grid grid-cols-[minmax(0,14rem)_1fr] gap-3">
+                  {shown.result && <CanalDiagram state={shown.result.state} compact />}
+                  <FindingList findings={shown.result?.findings ?? []} source={shown.source} />
+                </div>
+              </section>
+            );
+          })}
+        </div>
+        {submitted ? (
+          <p className="text-xl font-bold" data-testid="submitted">
+            ✓ Submitted for review
+          </p>
+        ) : confirming && warnings.length > 0 ? (
+          <StepCard
+            title="Submit with these open?"
+            hint="Your attending sees them; you can withdraw the submission until they act."
+          >
+            <ul className="list-disc pl-6 text-lg" data-testid="submit-warnings">
+              {warnings.map((w) => (
+                <li key={w}>{w}</li>
+              ))}
+            </ul>
+            <Answers>
+              <Answer tone="primary" onTap={() => void rec('case.submitted', {}, 'submitted for review')}>
+                Submit anyway
+              </Answer>
+              <Answer onTap={() => setConfirming(false)}>Not yet</Answer>
+            </Answers>
+          </StepCard>
+        ) : (
           <Answers>
             <Answer
               tone="primary"
               onTap={() =>
-                void rec('access.restored', { kind, ...(material ? { material } : {}) }, `access restored (${kind})`)
+                warnings.length > 0 ? setConfirming(true) : void rec('case.submitted', {}, 'submitted for review')
               }
             >
-              Restored
+              Submit for review
             </Answer>
           </Answers>
-        </StepCard>
-      ) : restored ? (
-        <p className="text-lg">
-          ✓ Access restored: {restored.data.kind}
-          {restored.data.material ? `, ${restored.data.material}` : ''}
-        </p>
-      ) : null}
-      {tooth &&
-        (!postOp && !locked ? (
-          <StepCard title="Post-operative radiograph taken?">
-            <Answers>
-              <Answer
-                tone="primary"
-                onTap={() => void rec('radiograph.taken', { purpose: 'post-op' }, 'post-op radiograph')}
-              >
-                Taken
-              </Answer>
-            </Answers>
-          </StepCard>
-        ) : postOp ? (
-          <p className="text-lg">✓ Post-operative radiograph taken</p>
-        ) : null)}
-      <div className="grid gap-4 landscape:grid-cols-2">
-        {shownCanals.map(({ c, shown }) => {
-          return (
-            <section
-              key={c.canalId}
-              aria-label={canalTitle(c.name)}
-              className="bg-white rounded-2xl border border-line p-3"
-            >
-              <h2 className="text-xl font-bold">
-                {canalTitle(c.name)}
-                {shown.result && isUnfilled(shown.result.state) ? (
-                  <span className="ml-2 text-base font-normal">· unfilled</span>
-                ) : null}
-              </h2>
-              <div className="grid grid-cols-[minmax(0,14rem)_1fr] gap-3">
-                {shown.result && <CanalDiagram state={shown.result.state} compact />}
-                <FindingList findings={shown.result?.findings ?? []} source={shown.source} />
-              </div>
-            </section>
-          );
-        })}
+        )}
       </div>
-      {submitted ? (
-        <p className="text-xl font-bold" data-testid="submitted">
-          ✓ Submitted for review
-        </p>
-      ) : confirming && warnings.length > 0 ? (
-        <StepCard
-          title="Submit with these open?"
-          hint="Your attending sees them; you can withdraw the submission until they act."
-        >
-          <ul className="list-disc pl-6 text-lg" data-testid="submit-warnings">
-            {warnings.map((w) => (
-              <li key={w}>{w}</li>
-            ))}
-          </ul>
-          <Answers>
-            <Answer tone="primary" onTap={() => void rec('case.submitted', {}, 'submitted for review')}>
-              Submit anyway
-            </Answer>
-            <Answer onTap={() => setConfirming(false)}>Not yet</Answer>
-          </Answers>
-        </StepCard>
-      ) : (
-        <Answers>
-          <Answer
-            tone="primary"
-            onTap={() =>
-              warnings.length > 0 ? setConfirming(true) : void rec('case.submitted', {}, 'submitted for review')
-            }
-          >
-            Submit for review
-          </Answer>
-        </Answers>
-      )}
-    </div>
+    </Guarded>
   );
 }

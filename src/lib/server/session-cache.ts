@@ -26,3 +26,15 @@ export async function sessionOf(request: Request, now = Date.now()): Promise<Ses
   if (cache.size > MAX_ENTRIES) cache.delete(cache.keys().next().value!);
   return session;
 }
+
+/**
+ * The session a cookie header decodes to, only when it is already kept (decoded by an
+ * earlier request within KEEP_MS); `undefined` when it would have to be decoded now.
+ */
+export function keptSessionOf(cookie: string, now = Date.now()): Session | null | undefined {
+  if (!cookie.includes('authjs.session-token')) return undefined;
+  const token = TOKEN.exec(cookie)?.[1];
+  if (!token) return undefined;
+  const hit = cache.get(token);
+  return hit && hit.until > now ? hit.session : undefined;
+}

@@ -1,4 +1,4 @@
-import { useLayoutEffect, useRef, useState, type MouseEvent } from 'react';
+import { useLayoutEffect, useRef, useState, type MouseEvent, type ReactNode } from 'react';
 import { CardWindow, TAP_GUARD_MS } from '../../lib/client/tapGuard';
 
 /**
@@ -28,4 +28,18 @@ export function useCardGuard(cardKey: string): {
       }
     },
   };
+}
+
+/**
+ * A screen whose taps are guarded like a card's: for TAP_GUARD_MS after it appears or after
+ * `screen` changes (the open-case steps, the canal set-up, the finishing card), taps are
+ * ignored. `data-armed` says when they count again.
+ */
+export function Guarded(props: { screen: string; children: ReactNode }) {
+  const guard = useCardGuard(props.screen);
+  return (
+    <div data-testid="screen" data-screen={props.screen} data-armed={guard.armed} onClickCapture={guard.onClickCapture}>
+      {props.children}
+    </div>
+  );
 }
