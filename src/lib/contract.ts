@@ -208,6 +208,86 @@ export interface CommentAnswer {
   comment: ReviewComment;
 }
 
+// --- review queue: GET /api/review/queue (docs/review.md, "The queue") ------------------
+
+/** The canal-level events a cone-fit item comes from (their data: `{}` and `{ attendingId }`). */
+export const CONEFIT_EVENT_TYPES = ['conefit.requested', 'conefit.approvedAtChair'] as const;
+
+/** Which cases the queue lists: `needs-action` (the default) is what waits for an attending now. */
+export const QUEUE_STATES = ['needs-action', 'open', 'returned', 'approved', 'all'] as const;
+export type QueueState = (typeof QUEUE_STATES)[number];
+
+/** The queue's orders: `waiting` (longest waiting first, the default), `student`, `tooth`, `stops` (most first). */
+export const QUEUE_SORTS = ['waiting', 'student', 'tooth', 'stops'] as const;
+export type QueueSort = (typeof QUEUE_SORTS)[number];
+
+/** Tooth groups by FDI number: anterior x1–x3, premolar x4–x5 (permanent), molar the rest. */
+export const TOOTH_GROUPS = ['anterior', 'premolar', 'molar'] as const;
+export type ToothGroupName = (typeof TOOTH_GROUPS)[number];
+
+/** Rows in one page of the queue. */
+export const QUEUE_PAGE_SIZE = 50;
+
+/** The query of GET /api/review/queue, each field optional (defaults: needs-action, waiting). */
+export interface QueueQuery {
+  state?: QueueState;
+  /** A student's user id. */
+  student?: number;
+  toothGroup?: ToothGroupName;
+  hasStops?: boolean;
+  /** A chart number, or its beginning (any case). */
+  q?: string;
+  sort?: QueueSort;
+  /** The `nextCursor` of the page before. */
+  cursor?: string;
+}
+
+/** A cone-fit item waiting for the attending: a request to approve, or an approval at the chair to confirm. */
+export interface ConeFitItem {
+  canalId: string;
+  canalName: string;
+  /** `requested`: the student asks for approval; `at-chair`: the student recorded an approval given at the chair. */
+  kind: 'requested' | 'at-chair';
+  eventId: string;
+  /** The event's `at` (the tablet's clock). */
+  recordedAt: string;
+  /** For `at-chair`: the attending the student named, and their name when the id is a known attending. */
+  attendingId?: string;
+  attendingName?: string | null;
+}
+
+/** Since when a row has waited, and for what. */
+export type QueueSinceKind = 'submitted' | 'cone-fit' | 'returned' | 'approved' | 'opened';
+
+/** One case in the queue. */
+export interface QueueRow {
+  caseId: string;
+  student: { id: number; name: string };
+  /** FDI number; null for a training block. */
+  tooth: number | null;
+  setting: CaseSetting;
+  /** Shown to clinical staff only; never put in a link. */
+  chartRef: string | null;
+  state: ReviewStatus;
+  /** Live canals. */
+  canals: number;
+  /** When the row began waiting: the submission or the oldest pending cone-fit item (whichever came first); for rows not waiting, when they were returned, signed off or opened. */
+  since: { at: string; kind: QueueSinceKind };
+  submittedAt: string | null;
+  stops: number;
+  cautions: number;
+  /** Live canals with no seated master cone. */
+  unfilled: number;
+  coneFits: ConeFitItem[];
+}
+
+/** The answer of GET /api/review/queue. */
+export interface QueueAnswer {
+  rows: QueueRow[];
+  /** Opaque; send it back as `cursor` for the next page. Null on the last page. */
+  nextCursor: string | null;
+}
+
 /** The clinic's time zone and locale (CLINIC_TIME_ZONE, CLINIC_LOCALE), for showing dates and times. */
 export interface Clinic {
   timeZone: string;

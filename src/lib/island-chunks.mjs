@@ -7,28 +7,29 @@
 // strip moved about 7 KB (gzipped) out of the chairside's chunk into shared chunks, and the
 // chairside's first paint grew by 1.1 KB (0.5 KB for the rules core alone) — two files pack
 // worse than one. Hence:
-// - `ownCopies` gives the calculators island its own copy of every module of ours it imports
-//   (the same source file under another module id, so nothing is written twice by hand);
+// - `ownCopies` gives the calculators island, the review queue's island and the director's
+//   settings island (components/admin/) their own copy of every module of ours they import
+//   (the same source file under another module id, so nothing is written twice by hand); they
+//   may share those copies with each other;
 // - `reactChunk` keeps React's own modules (react, react/jsx-runtime) in one chunk, which both
 //   islands and the React renderer load anyway.
 // The calculators browser test checks that the two pages share no script but React's.
 import { fileURLToPath } from 'node:url';
 
 const SRC = fileURLToPath(new URL('..', import.meta.url));
-const COPY = '?calculators-copy';
+const COPY = '?island-copy';
 
 /**
  * A Vite plugin: in the browser build, a module of `src/` imported from one of `islandDirs`
- * (or from one of their copies) is loaded as a copy of its own. Modules in the island folders
- * themselves and packages are left alone. The director's screens (components/admin/) take
- * copies too, for the same reason as the calculators: they import the rules core's tolerances
- * and the clinic's time formatting, which the chairside loads on first paint.
+ * (or from one of its copies) is loaded as a copy of its own. Modules in those folders
+ * themselves and packages are left alone.
  * @param {string[]} islandDirs folders of the islands, relative to src/
  * @returns {import('vite').Plugin}
  */
-export function ownCopies(islandDirs = ['components/calculators/', 'components/admin/']) {
+export function ownCopies(islandDirs = ['components/calculators/', 'components/review/queue/', 'components/admin/']) {
   const islands = islandDirs.map((d) => SRC + d);
-  const inIsland = (/** @type {string} */ id) => islands.some((i) => id.startsWith(i));
+  /** @param {string} id */
+  const inIsland = (id) => islands.some((dir) => id.startsWith(dir));
   return {
     name: 'coneline:own-copies',
     enforce: 'pre',

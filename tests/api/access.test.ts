@@ -177,6 +177,29 @@ const MATRIX: Record<string, Row[]> = {
       expect: directorOnly(400, 401),
     },
   ],
+  // The review queue: attendings (their own students' cases) and the director; students 403.
+  '/review': [
+    {
+      method: 'GET',
+      path: () => '/review',
+      variants: true,
+      expect: { anonymous: 302, owner: 403, otherStudent: 403, assigned: 200, unassigned: 200, director: 200 },
+    },
+  ],
+  '/api/review/queue': [
+    {
+      method: 'GET',
+      path: () => '/api/review/queue',
+      variants: true,
+      expect: { anonymous: 401, owner: 403, otherStudent: 403, assigned: 200, unassigned: 200, director: 200 },
+    },
+    // A bad parameter is refused only after the role check: a student still gets 403.
+    {
+      method: 'GET',
+      path: () => '/api/review/queue?state=everything',
+      expect: { anonymous: 401, owner: 403, otherStudent: 403, assigned: 400, unassigned: 400, director: 400 },
+    },
+  ],
   '/api/health': [{ method: 'GET', path: () => '/api/health', expect: signedIn(200, 200) }],
   '/api/me': [{ method: 'GET', path: () => '/api/me', expect: signedIn(200, 401) }],
   // A body that cannot pass validation: the matrix must change nothing.

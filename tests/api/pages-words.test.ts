@@ -86,6 +86,15 @@ describe('the home pages', () => {
     expect(text).toContain(formatInstant(cases[0]!.openedAt, clinic, 'date'));
   });
 
+  it('shows the review queue in words, dated in the clinic’s zone, rendered on the server', async () => {
+    const text = visibleText(await page(helen, '/review'));
+    expect(rawCodesIn(text)).toEqual([]);
+    const { rows } = (await (await helen.fetch('/api/review/queue')).json()) as { rows: { since: { at: string } }[] };
+    expect(rows.length).toBeGreaterThan(0);
+    expect(text).toContain(formatInstant(rows[0]!.since.at, clinic));
+    expect(text).not.toContain('needs-action');
+  });
+
   it('would notice a raw code in the text', () => {
     expect(rawCodesIn('Radiograph taken (maf) · compaction-incomplete')).toEqual(['compaction-incomplete', 'maf']);
   });

@@ -69,3 +69,30 @@ export function formatInstant(iso: string, clinic: Clinic, style: InstantStyle =
   }
   return f.format(t);
 }
+
+const AGO_STEPS: readonly [Intl.RelativeTimeFormatUnit, number][] = [
+  ['minute', 60_000],
+  ['hour', 3_600_000],
+  ['day', 86_400_000],
+];
+const agoFormats = new Map<string, Intl.RelativeTimeFormat>();
+
+/**
+ * How long before `now` (epoch ms) the instant `iso` was, in the clinic's locale: "just now"
+ * under a minute, then whole minutes, hours (from 1 h) and days (from 24 h), e.g. "3 hours ago"
+ * or "yesterday". An instant ahead of `now` (a tablet's clock) reads "just now"; an
+ * unreadable one "—".
+ */
+export function formatAgo(iso: string, now: number, clinic: Clinic): string {
+  const t = Date.parse(iso);
+  if (!Number.isFinite(t)) return '—';
+  const ms = now - t;
+  if (ms < 60_000) return 'just now';
+  let f = agoFormats.get(clinic.locale);
+  if (!f) {
+    f = new Intl.RelativeTimeFormat(clinic.locale, { numeric: 'auto' });
+    agoFormats.set(clinic.locale, f);
+  }
+  const [unit, size] = ms < 3_600_000 ? AGO_STEPS[0]! : ms < 86_400_000 ? AGO_STEPS[1]! : AGO_STEPS[2]!;
+  return f.format(-Math.floor(ms / size), unit);
+}

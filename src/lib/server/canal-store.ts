@@ -10,6 +10,14 @@ import type { EventRow as StoredEventRow } from './tables';
 /** Status of a canal whose canal.added was withdrawn. */
 export const REMOVED = 'removed';
 
+/**
+ * SQL that is 1 for a canal row with no seated master cone (`isUnfilled` of present/labels.ts
+ * on the stored state): a state judged before rules version 2 has no `unfilled`, and then its
+ * master cone's `seated` answers. Reads `state_json` of the canal row in scope.
+ */
+export const UNFILLED_SQL =
+  "coalesce(json_extract(state_json, '$.unfilled'), 1 - coalesce(json_extract(state_json, '$.masterCone.seated'), 0))";
+
 /** The columns of an event row the rules need. */
 export type EventRow = Pick<StoredEventRow, 'id' | 'case_id' | 'canal_id' | 'type' | 'at' | 'data_json'>;
 

@@ -29,6 +29,8 @@ export const ROLE_ROUTES: Readonly<Record<string, readonly Role[]>> = {
   '/api/audit': ['director'],
   '/api/audit.csv': ['director'],
   '/api/sync': ['student'],
+  '/review': ['attending', 'director'],
+  '/api/review/queue': ['attending', 'director'],
 };
 
 /** The roles a route is limited to, or null when any signed-in user may reach it. */

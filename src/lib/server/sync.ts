@@ -20,7 +20,7 @@ import {
 import { isRefusal, next } from '../rules/index';
 import { loadTallies } from './sync-limits';
 import { kickMail } from './mail-worker';
-import { REMOVED, rowToEvent, type EventRow } from './canal-store';
+import { REMOVED, rowToEvent, UNFILLED_SQL, type EventRow } from './canal-store';
 import type { CaseRow } from './tables';
 
 import { CONTRACT_VERSION, type SyncAnswer, type SyncResult } from '../contract';
@@ -162,9 +162,7 @@ async function filledCases(trx: Knex, caseIds: string[]): Promise<string[]> {
     .distinct('case_id')
     .whereIn('case_id', caseIds)
     .whereNot('status', REMOVED)
-    .whereRaw(
-      "coalesce(json_extract(state_json, '$.unfilled'), 1 - coalesce(json_extract(state_json, '$.masterCone.seated'), 0)) = 0",
-    );
+    .whereRaw(`${UNFILLED_SQL} = 0`);
   return rows.map((r) => r.case_id);
 }
 

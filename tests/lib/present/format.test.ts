@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { cejLevel, clinicProblem, DEFAULT_CLINIC, formatInstant, mm } from '../../../src/lib/present/format';
+import { cejLevel, clinicProblem, DEFAULT_CLINIC, formatAgo, formatInstant, mm } from '../../../src/lib/present/format';
 
 describe('formatInstant', () => {
   // Invented times. Auckland is 13 h ahead of UTC in March (daylight saving), so late evening
@@ -24,6 +24,31 @@ describe('formatInstant', () => {
 
   it('shows a dash for an instant it cannot read', () => {
     expect(formatInstant('not a date', DEFAULT_CLINIC)).toBe('—');
+  });
+});
+
+describe('formatAgo', () => {
+  const now = Date.parse('2026-12-07T14:00:00Z');
+  const ago = (ms: number) => formatAgo(new Date(now - ms).toISOString(), now, DEFAULT_CLINIC);
+
+  it('says "just now" under a minute, and for an instant ahead of now', () => {
+    expect(ago(59_000)).toBe('just now');
+    expect(ago(-120_000)).toBe('just now');
+  });
+
+  it('counts whole minutes under an hour, whole hours under a day, then days', () => {
+    expect(ago(60_000)).toBe('1 minute ago');
+    expect(ago(59 * 60_000 + 59_000)).toBe('59 minutes ago');
+    expect(ago(3 * 3_600_000 + 59 * 60_000)).toBe('3 hours ago');
+    expect(ago(86_400_000)).toBe('yesterday');
+    expect(ago(3 * 86_400_000)).toBe('3 days ago');
+  });
+
+  it('follows the clinic’s locale, and shows a dash for an instant it cannot read', () => {
+    expect(formatAgo('2026-12-07T12:00:00Z', now, { timeZone: 'Europe/Berlin', locale: 'de-DE' })).toBe(
+      'vor 2 Stunden',
+    );
+    expect(formatAgo('soon', now, DEFAULT_CLINIC)).toBe('—');
   });
 });
 
