@@ -56,7 +56,8 @@ export default defineConfig({
   },
   server: { host: process.env.HOST ?? '127.0.0.1', port: Number(process.env.PORT ?? 4321) },
   vite: {
-    // The calculators island shares no chunk with the chairside's but React's (island-chunks.mjs).
+    // The calculators island and the review islands share no chunk with the chairside's but
+    // React's (island-chunks.mjs).
     plugins: [tailwindcss(), ownCopies()],
     // Terser packs the tablet's scripts a few per cent tighter than the default minifier;
     // the chairside page has a 100 KB (gzipped) budget for all its JavaScript.

@@ -7,10 +7,11 @@
 // strip moved about 7 KB (gzipped) out of the chairside's chunk into shared chunks, and the
 // chairside's first paint grew by 1.1 KB (0.5 KB for the rules core alone) — two files pack
 // worse than one. Hence:
-// - `ownCopies` gives the calculators island, the review queue's island and the director's
-//   settings island (components/admin/) their own copy of every module of ours they import
-//   (the same source file under another module id, so nothing is written twice by hand); they
-//   may share those copies with each other;
+// - `ownCopies` gives the calculators island, the review islands (the queue's, and the case
+//   page's comments and sign-off panel, all under components/review/) and the director's
+//   settings island (components/admin/) their own copy of every module of ours they import (the
+//   same source file under another module id, so nothing is written twice by hand); they may
+//   share those copies with each other, never with the tablet;
 // - `reactChunk` keeps React's own modules (react, react/jsx-runtime) in one chunk, which both
 //   islands and the React renderer load anyway.
 // The calculators browser test checks that the two pages share no script but React's.
@@ -26,7 +27,7 @@ const COPY = '?island-copy';
  * @param {string[]} islandDirs folders of the islands, relative to src/
  * @returns {import('vite').Plugin}
  */
-export function ownCopies(islandDirs = ['components/calculators/', 'components/review/queue/', 'components/admin/']) {
+export function ownCopies(islandDirs = ['components/calculators/', 'components/review/', 'components/admin/']) {
   const islands = islandDirs.map((d) => SRC + d);
   /** @param {string} id */
   const inIsland = (id) => islands.some((dir) => id.startsWith(dir));

@@ -68,11 +68,18 @@ const MATRIX_ID = {
   reopen: '00000000-0000-4000-8000-00000000a11d',
   comments: '00000000-0000-4000-8000-00000000a11e',
   mail: '00000000-0000-4000-8000-00000000a11f',
-  settings: '00000000-0000-4000-8000-00000000a120',
+  invite: '00000000-0000-4000-8000-00000000a120',
+  inviteCsv: '00000000-0000-4000-8000-00000000a121',
+  resend: '00000000-0000-4000-8000-00000000a122',
+  revoke: '00000000-0000-4000-8000-00000000a123',
+  accept: '00000000-0000-4000-8000-00000000a124',
+  resetRequest: '00000000-0000-4000-8000-00000000a125',
+  resetConfirm: '00000000-0000-4000-8000-00000000a126',
+  userReset: '00000000-0000-4000-8000-00000000a127',
+  settings: '00000000-0000-4000-8000-00000000a128',
 };
-
-/** Directors only: 401 for anonymous API calls (302 for pages), 403 for every other role. */
-const directorOnly = (status: number, anonymous: number): Record<Actor, number> => ({
+/** Directors only: 403 for every other role, `status` for the director. */
+const directors = (status: number, anonymous: number): Record<Actor, number> => ({
   anonymous,
   owner: 403,
   otherStudent: 403,
@@ -80,6 +87,9 @@ const directorOnly = (status: number, anonymous: number): Record<Actor, number> 
   unassigned: 403,
   director: status,
 });
+/** A token no link was ever made with: the public link routes answer 404 to everyone. */
+const NO_TOKEN = 'A'.repeat(43);
+const MATRIX_PASSWORD = 'access matrix password 2026';
 
 /** One row per route pattern (as Astro names it). */
 const MATRIX: Record<string, Row[]> = {
@@ -103,7 +113,14 @@ const MATRIX: Record<string, Row[]> = {
       expect: { anonymous: 302, owner: 403, otherStudent: 403, assigned: 200, unassigned: 200, director: 200 },
     },
   ],
-  '/admin/audit': [{ method: 'GET', path: () => '/admin/audit', variants: true, expect: directorOnly(200, 302) }],
+  '/admin/audit': [{ method: 'GET', path: () => '/admin/audit', variants: true, expect: directors(200, 302) }],
+  '/admin/invitations': [
+    { method: 'GET', path: () => '/admin/invitations', variants: true, expect: directors(200, 302) },
+  ],
+  // Public account pages (docs/accounts.md): open to anyone; an unknown link is 404.
+  '/forgot-password': [{ method: 'GET', path: () => '/forgot-password', expect: signedIn(200, 200) }],
+  '/invite/[token]': [{ method: 'GET', path: () => `/invite/${NO_TOKEN}`, expect: signedIn(404, 404) }],
+  '/reset-password/[token]': [{ method: 'GET', path: () => `/reset-password/${NO_TOKEN}`, expect: signedIn(404, 404) }],
   '/cases/[caseId]': [{ method: 'GET', path: (i) => `/cases/${i.caseId}`, expect: readers(302), variants: true }],
   // Static and prerendered like the chairside shell, with no data in it: open to anyone.
   '/calculators': [{ method: 'GET', path: () => '/calculators', expect: signedIn(200, 200) }],
@@ -153,8 +170,8 @@ const MATRIX: Record<string, Row[]> = {
       expect: { anonymous: 401, owner: 400, otherStudent: 404, assigned: 400, unassigned: 404, director: 400 },
     },
   ],
-  '/api/audit': [{ method: 'GET', path: () => '/api/audit', variants: true, expect: directorOnly(200, 401) }],
-  '/api/audit.csv': [{ method: 'GET', path: () => '/api/audit.csv', variants: true, expect: directorOnly(200, 401) }],
+  '/api/audit': [{ method: 'GET', path: () => '/api/audit', variants: true, expect: directors(200, 401) }],
+  '/api/audit.csv': [{ method: 'GET', path: () => '/api/audit.csv', variants: true, expect: directors(200, 401) }],
   '/api/settings': [
     { method: 'GET', path: () => '/api/settings', expect: signedIn(200, 401) },
     // A name that is no setting: refused before anything is stored.
@@ -163,18 +180,18 @@ const MATRIX: Record<string, Row[]> = {
       path: () => '/api/settings',
       body: { id: MATRIX_ID.settings, values: { noSuchSetting: 1 } },
       variants: true,
-      expect: directorOnly(400, 401),
+      expect: directors(400, 401),
     },
   ],
   '/api/settings/recompute': [
-    { method: 'GET', path: () => '/api/settings/recompute', variants: true, expect: directorOnly(200, 401) },
+    { method: 'GET', path: () => '/api/settings/recompute', variants: true, expect: directors(200, 401) },
     // Not a request id: refused before anything starts.
     {
       method: 'POST',
       path: () => '/api/settings/recompute',
       body: { id: 'x' },
       variants: true,
-      expect: directorOnly(400, 401),
+      expect: directors(400, 401),
     },
   ],
   // The review queue: attendings (their own students' cases) and the director; students 403.
@@ -198,6 +215,77 @@ const MATRIX: Record<string, Row[]> = {
       method: 'GET',
       path: () => '/api/review/queue?state=everything',
       expect: { anonymous: 401, owner: 403, otherStudent: 403, assigned: 400, unassigned: 400, director: 400 },
+    },
+  ],
+  // Invitations (docs/accounts.md): bodies that cannot pass, or name nothing; nothing changes.
+  '/api/invitations': [
+    { method: 'GET', path: () => '/api/invitations', variants: true, expect: directors(200, 401) },
+    {
+      method: 'POST',
+      path: () => '/api/invitations',
+      body: { id: MATRIX_ID.invite, email: 'not an address', role: 'student' },
+      variants: true,
+      expect: directors(400, 401),
+    },
+  ],
+  '/api/invitations/csv': [
+    {
+      method: 'POST',
+      path: () => '/api/invitations/csv',
+      body: { id: MATRIX_ID.inviteCsv, csv: 'name,email\n', role: 'student' },
+      expect: directors(400, 401),
+    },
+  ],
+  '/api/invitations/[invitationId]/resend': [
+    {
+      method: 'POST',
+      path: () => '/api/invitations/99999/resend',
+      body: { id: MATRIX_ID.resend },
+      variants: true,
+      expect: directors(404, 401),
+    },
+  ],
+  '/api/invitations/[invitationId]/revoke': [
+    {
+      method: 'POST',
+      path: () => '/api/invitations/99999/revoke',
+      body: { id: MATRIX_ID.revoke },
+      variants: true,
+      expect: directors(404, 401),
+    },
+  ],
+  '/api/invitations/[token]/accept': [
+    {
+      method: 'POST',
+      path: () => `/api/invitations/${NO_TOKEN}/accept`,
+      body: { id: MATRIX_ID.accept, name: 'Access Matrix', password: MATRIX_PASSWORD },
+      expect: signedIn(404, 404),
+    },
+  ],
+  // Password resets: the same 202 for an address with no account, which sends nothing.
+  '/api/password-resets': [
+    {
+      method: 'POST',
+      path: () => '/api/password-resets',
+      body: { id: MATRIX_ID.resetRequest, email: 'nobody.at.all@larkfield.example' },
+      expect: signedIn(202, 202),
+    },
+  ],
+  '/api/password-resets/[token]': [
+    {
+      method: 'POST',
+      path: () => `/api/password-resets/${NO_TOKEN}`,
+      body: { id: MATRIX_ID.resetConfirm, password: MATRIX_PASSWORD },
+      expect: signedIn(404, 404),
+    },
+  ],
+  '/api/users/[userId]/password-reset': [
+    {
+      method: 'POST',
+      path: () => '/api/users/99999/password-reset',
+      body: { id: MATRIX_ID.userReset },
+      variants: true,
+      expect: directors(404, 401),
     },
   ],
   '/api/health': [{ method: 'GET', path: () => '/api/health', expect: signedIn(200, 200) }],

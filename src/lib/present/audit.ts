@@ -16,6 +16,13 @@ const ACTIONS: Readonly<Record<string, string>> = {
   'user.signed-out': 'Signed out',
   'user.signed-out-everywhere': 'Signed out on every device',
   'user.mail-preference': 'Changed their review e-mail preference',
+  'user.password-reset-requested': 'Asked for a password reset link',
+  'user.password-reset-sent': 'Sent an account a password reset link',
+  'user.password-reset': 'Set a new password from a reset link',
+  'invitation.created': 'Invited someone to Coneline',
+  'invitation.resent': 'Sent an invitation again',
+  'invitation.revoked': 'Revoked an invitation',
+  'invitation.accepted': 'Accepted an invitation',
   'demo.removed': 'Removed the demo data',
 };
 
@@ -34,6 +41,7 @@ const SUBJECTS: Readonly<Record<string, string>> = {
   case: 'Case',
   user: 'Account',
   settings: 'Settings version',
+  invitation: 'Invitation',
 };
 
 /** A subject type in words ("user" → "Account"). */

@@ -40,7 +40,7 @@ export {
 } from './lifecycle';
 export type { CaseState, CaseAction, Refusal as LifecycleRefusal, ApprovalBlockers } from './lifecycle';
 export type { Tolerances } from './tolerances';
-export { SIGNOFF_CHECKPOINTS, SIGNOFF_DECISIONS, RATING_KEYS, RATING_LEVELS } from './review';
+export { SIGNOFF_CHECKPOINTS, SIGNOFF_DECISIONS, RATING_KEYS, RATING_LEVELS, REVIEW_TEXT_MAX } from './review';
 export type {
   SignoffCheckpoint,
   SignoffDecision,

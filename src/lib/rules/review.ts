@@ -15,3 +15,6 @@ export type RatingKey = (typeof RATING_KEYS)[number];
 export const RATING_LEVELS = [1, 2, 3, 4] as const;
 export type RatingLevel = (typeof RATING_LEVELS)[number];
 export type CanalRatings = Partial<Record<RatingKey, RatingLevel>>;
+
+/** The longest comment, return reason or reopening reason, in characters (after trimming). */
+export const REVIEW_TEXT_MAX = 2000;

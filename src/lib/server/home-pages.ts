@@ -3,13 +3,17 @@
  * no page or component opens the database itself. Each checks nothing beyond what its callers
  * pass: the middleware and the route have already decided who may see the page.
  */
-import type { CaseSummary } from '../contract';
+import type { CaseSummary, Signoff } from '../contract';
 import { UUID_RE } from './access';
 import { caseDetail, listCases, type CaseDetail } from './cases';
 import { db } from './db';
+import { signoffsByCase } from './review-page';
 
-export async function studentHome(user: SessionUser): Promise<{ cases: CaseSummary[] }> {
-  return { cases: await listCases(await db(), user) };
+/** The student's cases, and every sign-off of them by case id (what came back, and why). */
+export async function studentHome(
+  user: SessionUser,
+): Promise<{ cases: CaseSummary[]; signoffs: Map<string, Signoff[]> }> {
+  return { cases: await listCases(await db(), user), signoffs: await signoffsByCase(user) };
 }
 
 export async function attendingHome(

@@ -63,6 +63,49 @@ export async function enqueueMail(trx: Knex, n: Notice, now: string): Promise<st
   return id;
 }
 
+/** An e-mail that is not a review notice: an invitation or a password-reset link. */
+export interface DirectMail {
+  /** The account it goes to; null for an address with no account yet (an invitation). */
+  recipientId: number | null;
+  to: string;
+  kind: 'invitation' | 'password-reset';
+  subject: string;
+  text: string;
+}
+
+/**
+ * Kinds whose text holds a link's secret token. Once such an e-mail is sent, the token is
+ * blanked out of the stored copy (`scrubLinks`): the database keeps tokens only as hashes.
+ */
+export const SECRET_LINK_KINDS: ReadonlySet<string> = new Set(['invitation', 'password-reset']);
+
+/** The text with every invitation or reset link's token replaced by a mark. */
+export function scrubLinks(text: string): string {
+  return text.replace(/\/(invite|reset-password)\/[A-Za-z0-9_-]{20,}/g, '/$1/[link removed once sent]');
+}
+
+/**
+ * Writes an e-mail to go at once (never held for a digest: a link that lasts an hour cannot
+ * wait for tomorrow's digest), inside the caller's transaction. Answers the outbox row's id.
+ */
+export async function enqueueDirectMail(trx: Knex, m: DirectMail, now: string): Promise<string> {
+  const id = randomUUID();
+  await trx('mail_outbox').insert({
+    id,
+    recipient_id: m.recipientId,
+    to_address: m.to,
+    case_id: null,
+    kind: m.kind,
+    subject: m.subject,
+    body_text: m.text,
+    status: 'pending',
+    attempts: 0,
+    next_attempt_at: now,
+    created_at: now,
+  });
+  return id;
+}
+
 /** The Message-ID of an outbox row: the same row always makes the same Message-ID. */
 export function messageIdOf(outboxId: string, publicUrl: string): string {
   let host = 'coneline.localhost';
@@ -130,7 +173,13 @@ export async function deliverDue(
         subject: row.subject,
         text: row.body_text,
       });
-      await mine().update({ status: 'sent', sent_at: iso(Date.now()), claimed_until: null, last_error: null });
+      await mine().update({
+        status: 'sent',
+        sent_at: iso(Date.now()),
+        claimed_until: null,
+        last_error: null,
+        ...(SECRET_LINK_KINDS.has(row.kind) ? { body_text: scrubLinks(row.body_text) } : {}),
+      });
       run.sent += 1;
     } catch (err) {
       const attempts = row.attempts + 1;

@@ -3,6 +3,7 @@ import { z } from 'zod';
 import {
   CASE_STATES,
   RATING_KEYS,
+  REVIEW_TEXT_MAX,
   SIGNOFF_CHECKPOINTS,
   SIGNOFF_DECISIONS,
   type CanalRatings,
@@ -13,7 +14,11 @@ import { UUID_RE } from './access';
 const requestId = z.string().regex(UUID_RE, 'id must be a UUID made by the client for this request');
 const uuid = (name: string) => z.string().regex(UUID_RE, `${name} must be a UUID`);
 const text = (name: string, required: string) =>
-  z.string({ required_error: required }).trim().min(1, required).max(2000, `${name} may be at most 2,000 characters`);
+  z
+    .string({ required_error: required })
+    .trim()
+    .min(1, required)
+    .max(REVIEW_TEXT_MAX, `${name} may be at most ${REVIEW_TEXT_MAX.toLocaleString('en')} characters`);
 
 const level = z
   .number({ invalid_type_error: 'each rating must be a level from 1 to 4' })

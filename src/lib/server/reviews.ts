@@ -41,7 +41,8 @@ export async function reviewableCase(k: Knex, user: SessionUser, caseId: string)
   return row;
 }
 
-const isAnswer = (x: CaseRow | Answer): x is Answer => 'status' in x && 'body' in x;
+/** True for a refusal from `reviewableCase` rather than the case. */
+export const isAnswer = (x: CaseRow | Answer): x is Answer => 'status' in x && 'body' in x;
 
 /** The lifecycle state of a case row: `discarded` while a discard stands, else its review state. */
 export const stateOf = (row: Pick<CaseRow, 'review_status' | 'discarded_at'>): CaseState =>

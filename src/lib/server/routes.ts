@@ -6,6 +6,22 @@
  */
 
 /**
+ * The invitation and password-reset routes anyone may reach (docs/accounts.md): someone with
+ * no account yet, or one who cannot sign in. Each write checks Origin, each is rate-limited
+ * per client address and per target (public-limits.ts), and a reset request answers the same
+ * whether or not the address has an account. Pages with a token in their address send
+ * `Referrer-Policy: no-referrer` and `Cache-Control: no-store`.
+ */
+export const ACCOUNT_PUBLIC_ROUTES = [
+  '/invite/[token]',
+  '/forgot-password',
+  '/reset-password/[token]',
+  '/api/invitations/[token]/accept',
+  '/api/password-resets',
+  '/api/password-resets/[token]',
+] as const;
+
+/**
  * Routes anyone may reach. The chairside shell and the calculators are static, prerendered
  * files that hold no data (the server hands them out before any session is read, and the
  * service worker answers them offline); what a user may see comes from the API.
@@ -17,6 +33,7 @@ export const PUBLIC_ROUTES: ReadonlySet<string> = new Set([
   '/404',
   '/api/auth/[...auth]',
   '/api/health',
+  ...ACCOUNT_PUBLIC_ROUTES,
 ]);
 
 /** Routes open to some roles only; any other signed-in route is open to every role. */
@@ -31,6 +48,13 @@ export const ROLE_ROUTES: Readonly<Record<string, readonly Role[]>> = {
   '/api/sync': ['student'],
   '/review': ['attending', 'director'],
   '/api/review/queue': ['attending', 'director'],
+  // Invitations and sending a reset link (docs/accounts.md).
+  '/admin/invitations': ['director'],
+  '/api/invitations': ['director'],
+  '/api/invitations/csv': ['director'],
+  '/api/invitations/[invitationId]/resend': ['director'],
+  '/api/invitations/[invitationId]/revoke': ['director'],
+  '/api/users/[userId]/password-reset': ['director'],
 };
 
 /** The roles a route is limited to, or null when any signed-in user may reach it. */

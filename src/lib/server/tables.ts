@@ -172,7 +172,8 @@ export type MailStatus = 'held' | 'pending' | 'sent' | 'digested';
 /** One e-mail waiting to go, or gone (src/lib/server/mail-outbox.ts). */
 export interface MailOutboxRow {
   id: string;
-  recipient_id: number;
+  /** Null for e-mail to an address with no account yet (an invitation). */
+  recipient_id: number | null;
   to_address: string;
   case_id: string | null;
   kind: string;
@@ -190,25 +191,42 @@ export interface MailOutboxRow {
   created_at: string;
 }
 
+/** An invitation to make an account (src/lib/server/invitations.ts, docs/accounts.md). */
 export interface InvitationRow {
   id: number;
   email: string;
   role: Role;
   cohort_id: number | null;
+  /** SHA-256 (hex) of the link's token; the token itself is never stored. */
   token_hash: string;
   invited_by: number;
   expires_at: string;
   accepted_at: string | null;
   created_at: string;
+  /** The name the director suggested; the invitee may change it. */
+  name: string | null;
+  /** A student's attendings-to-be, a JSON list of user ids. */
+  attending_ids_json: string | null;
+  revoked_at: string | null;
+  revoked_by: number | null;
+  accepted_user_id: number | null;
+  sent_count: number;
+  last_sent_at: string | null;
 }
 
+/** One e-mailed link to set a new password (src/lib/server/password-resets.ts). */
 export interface PasswordResetRow {
   id: number;
   user_id: number;
+  /** SHA-256 (hex) of the link's token; the token itself is never stored. */
   token_hash: string;
   expires_at: string;
   used_at: string | null;
   created_at: string;
+  /** Null when the account holder asked; the director's id when a director sent it. */
+  requested_by: number | null;
+  /** Set when a newer link for the account replaced this one. */
+  superseded_at: string | null;
 }
 
 export interface SettingRow {
@@ -244,6 +262,9 @@ export interface SigninLimitRow {
   expire: number | null;
 }
 
+/** The public routes' rate-limiter counters (src/lib/server/public-limits.ts). */
+export type PublicLimitRow = SigninLimitRow;
+
 export interface RequestIdRow {
   id: string;
   user_id: number;
@@ -272,6 +293,7 @@ declare module 'knex/types/tables' {
     audit_log: AuditRow;
     sessions: SessionRow;
     signin_limits: SigninLimitRow;
+    public_limits: PublicLimitRow;
     request_ids: RequestIdRow;
     finding_history: FindingHistoryRow;
     settings_version: SettingsVersionRow;
