@@ -8,10 +8,10 @@
  * chairside's first paint (docs/architecture.md, "Chairside budget").
  */
 import { z } from 'zod';
-import type { Role } from './contract';
+import { ROLES, type Role } from './contract';
 
 /** The roles, as in contract.ts (checked below), repeated so this file imports no module of the tablet's. */
-export const ACCOUNT_ROLES = ['student', 'attending', 'director'] as const satisfies readonly Role[];
+export const ACCOUNT_ROLES = ROLES;
 // Fails to compile if contract.ts ever has a role this list lacks.
 const _everyRole: readonly (typeof ACCOUNT_ROLES)[number][] = [] as Role[];
 void _everyRole;

@@ -23,6 +23,14 @@ export type { CanalResult, CaseState, EventOf, EventType, LogEvent };
 export { EVENT_TYPES };
 export { LIMITS } from './rules/limits';
 export type { Tolerances } from './rules/tolerances';
+// The course settings' names, ranges and bodies are declared in settings-contract.ts (zod).
+export type {
+  RecomputeStatus,
+  SettingName,
+  SettingsAnswer,
+  SettingsPut,
+  StaleSettingsAnswer,
+} from './settings-contract';
 
 /**
  * The contract's version. It only grows: the server keeps accepting every event shape it
@@ -76,6 +84,11 @@ export interface SyncAnswer {
   results: SyncResult[];
   /** The full, recomputed state and open findings of every canal the batch touched. */
   canals: CanalResult[];
+  /**
+   * The settings version that judged the batch (GET /api/settings names the same version).
+   * Added with the settings screen; absent from older servers.
+   */
+  settingsVersion?: number;
 }
 
 // --- reading back ---------------------------------------------------------------------
@@ -112,6 +125,8 @@ export interface CaseDetail {
   signoffs?: Signoff[];
   /** Added with review (issue 11): every comment, oldest first. Absent from older servers. */
   comments?: ReviewComment[];
+  /** The settings version in force (GET /api/settings). Added with the settings screen; absent from older servers. */
+  settingsVersion?: number;
 }
 
 // --- review: sign-offs and comments (docs/review.md) ----------------------------------

@@ -45,6 +45,9 @@ export function chairsidePwa() {
         'icons/*.{png,svg}',
         'favicon.svg',
       ],
+      // The director's settings island (react-hook-form and zod, about 29 KB gzipped) belongs to a
+      // desktop page that is only used online: tablets need not download it.
+      globIgnores: ['_astro/SettingsEditor.*.js'],
       cleanupOutdatedCaches: true,
       // Never cache API answers: they are personal and must come from the server or IndexedDB.
       runtimeCaching: [],

@@ -84,6 +84,7 @@ const MATRIX_ID = {
   assignments: '00000000-0000-4000-8000-00000000a12d',
   cohortCreate: '00000000-0000-4000-8000-00000000a12e',
   cohortUpdate: '00000000-0000-4000-8000-00000000a12f',
+  settings: '00000000-0000-4000-8000-00000000a130',
 };
 /** Directors only: 403 for every other role, `status` for the director. */
 const directors = (status: number, anonymous: number): Record<Actor, number> => ({
@@ -125,6 +126,16 @@ const MATRIX: Record<string, Row[]> = {
       expect: { anonymous: 302, owner: 403, otherStudent: 403, assigned: 200, unassigned: 200, director: 200 },
     },
   ],
+  // Attendings may read the settings; only a director changes them (docs/settings.md).
+  '/admin/settings': [
+    {
+      method: 'GET',
+      path: () => '/admin/settings',
+      variants: true,
+      expect: { anonymous: 302, owner: 403, otherStudent: 403, assigned: 200, unassigned: 200, director: 200 },
+    },
+  ],
+  '/admin/audit': [{ method: 'GET', path: () => '/admin/audit', variants: true, expect: directors(200, 302) }],
   '/admin/invitations': [
     { method: 'GET', path: () => '/admin/invitations', variants: true, expect: directors(200, 302) },
   ],
@@ -184,6 +195,30 @@ const MATRIX: Record<string, Row[]> = {
       body: { id: MATRIX_ID.comments, canalId: '00000000-0000-4000-8000-00000000abcd', text: 'access matrix' },
       variants: true,
       expect: { anonymous: 401, owner: 400, otherStudent: 404, assigned: 400, unassigned: 404, director: 400 },
+    },
+  ],
+  '/api/audit': [{ method: 'GET', path: () => '/api/audit', variants: true, expect: directors(200, 401) }],
+  '/api/audit.csv': [{ method: 'GET', path: () => '/api/audit.csv', variants: true, expect: directors(200, 401) }],
+  '/api/settings': [
+    { method: 'GET', path: () => '/api/settings', expect: signedIn(200, 401) },
+    // A name that is no setting: refused before anything is stored.
+    {
+      method: 'PUT',
+      path: () => '/api/settings',
+      body: { id: MATRIX_ID.settings, values: { noSuchSetting: 1 } },
+      variants: true,
+      expect: directors(400, 401),
+    },
+  ],
+  '/api/settings/recompute': [
+    { method: 'GET', path: () => '/api/settings/recompute', variants: true, expect: directors(200, 401) },
+    // Not a request id: refused before anything starts.
+    {
+      method: 'POST',
+      path: () => '/api/settings/recompute',
+      body: { id: 'x' },
+      variants: true,
+      expect: directors(400, 401),
     },
   ],
   // The review queue: attendings (their own students' cases) and the director; students 403.

@@ -71,7 +71,7 @@ describe('the content security policy in Chromium', () => {
     const out = page.getByRole('button', { name: 'Sign out of this device' });
     if (await out.count()) await Promise.all([page.waitForURL(/signin/), out.click()]);
     await signIn(page, server.baseUrl, DEMO.ingrid, DEMO.password);
-    for (const path of ['/', '/admin', '/account']) await visit(page, path);
+    for (const path of ['/', '/admin', '/admin/settings', '/admin/audit', '/account']) await visit(page, path);
     await page.close();
   });
 });

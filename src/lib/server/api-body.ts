@@ -15,12 +15,14 @@ export type Parsed<T> = { ok: true; value: T; raw: unknown } | { ok: false; resp
 /**
  * The body of a state-changing JSON request checked against `schema`: 403 from another origin,
  * 415 when not JSON, 413 past `maxBytes`, 400 with the first problem in plain words and the
- * field it is about (`field`).
+ * field it is about (`field`: the top-level one, unless `fieldOfError` names another, as the
+ * settings do for the setting inside `values`).
  */
 export async function parseJsonBody<S extends z.ZodTypeAny>(
   request: Request,
   schema: S,
   maxBytes = 16_384,
+  fieldOfError: (error: z.ZodError) => string | undefined = fieldOf,
 ): Promise<Parsed<z.infer<S>>> {
   const fail = (status: number, error: string, field?: string): Parsed<z.infer<S>> => ({
     ok: false,
@@ -38,6 +40,6 @@ export async function parseJsonBody<S extends z.ZodTypeAny>(
     return fail(400, 'The body is not valid JSON.');
   }
   const input = schema.safeParse(raw);
-  if (!input.success) return fail(400, formatZodError(input.error), fieldOf(input.error));
+  if (!input.success) return fail(400, formatZodError(input.error), fieldOfError(input.error));
   return { ok: true, value: input.data as z.infer<S>, raw };
 }

@@ -7,6 +7,7 @@ import { readableCase, readableCases, type CaseRow } from './access';
 import { caseEvents, REMOVED, storedCanalsOfCase } from './canal-store';
 import { commentsOf } from './comments';
 import { signoffsOf } from './reviews';
+import { settingsVersion } from './settings';
 
 export type { CaseSummary } from '../contract';
 
@@ -72,6 +73,8 @@ export interface CaseDetail {
   canals: CanalResult[];
   signoffs: Signoff[];
   comments: ReviewComment[];
+  /** The settings version in force when it was read. */
+  settingsVersion: number;
 }
 
 /** One case with every stored event and each canal's state, or null when not readable. */
@@ -92,6 +95,7 @@ export async function caseDetail(k: Knex, user: SessionUser, caseId: string): Pr
     canals,
     signoffs: await signoffsOf(k, caseId),
     comments: await commentsOf(k, caseId),
+    settingsVersion: await settingsVersion(k),
   };
 }
 
@@ -103,8 +107,9 @@ const CASE_ANSWER_FORMAT = 'c2';
  * from — the case row's review status, submission, sign-off and updated_at; the count, last
  * rowid and last received_at of its events (never edited, only added); the count and latest
  * updated_at of its canal rows; the count of its findings; the count, last id and last
- * superseding of its sign-offs and the count and last id of its comments. Every write that changes the answer
- * (a sync batch, a sign-off) touches one of them; an unchanged case always hashes the same.
+ * superseding of its sign-offs and the count and last id of its comments; the settings version
+ * (a change of the settings re-judges the canals, and the answer names the version). Every write that changes the answer
+ * (a sync batch, a sign-off, a settings change) touches one of them; an unchanged case always hashes the same.
  * One indexed query, no events read: the cheap half of a conditional GET.
  */
 export async function caseVersion(k: Knex, caseId: string): Promise<string | null> {
@@ -125,6 +130,7 @@ export async function caseVersion(k: Knex, caseId: string): Promise<string | nul
         "(select count(*) || ':' || coalesce(max(id), 0) || ':' || coalesce(max(superseded_at), '') from signoffs where case_id = c.id) as so",
       ),
       k.raw("(select count(*) || ':' || coalesce(max(id), 0) from comments where case_id = c.id) as co"),
+      k.raw('(select version from settings_version where id = 1) as sv'),
     )) as Record<string, unknown> | undefined;
   if (!row) return null;
   const hash = createHash('sha256')

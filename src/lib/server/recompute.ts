@@ -15,6 +15,25 @@ const JOB = 'rejudge';
 export const RECOMPUTE_CHUNK = 200;
 const LOCKED = CASE_STATES.filter(isLocked);
 
+/** The canals the re-judging looks after: those of cases not locked, and not removed. */
+function unlockedCanals(k: Knex): Knex.QueryBuilder {
+  return k('canals')
+    .join('cases', 'cases.id', 'canals.case_id')
+    .whereNotIn('cases.review_status', LOCKED)
+    .whereNot('canals.status', REMOVED);
+}
+
+/** Narrows `q` to canals not judged by the rules and settings versions of `judge`. */
+function staleCanals(q: Knex.QueryBuilder, judge: { rulesVersion: number; settingsVersion: number }) {
+  return q.where((w) =>
+    w
+      .whereNull('canals.rules_version')
+      .orWhereNull('canals.settings_version')
+      .orWhereNot('canals.rules_version', judge.rulesVersion)
+      .orWhereNot('canals.settings_version', judge.settingsVersion),
+  );
+}
+
 /**
  * One step: judges again up to `chunkSize` unlocked canals not yet judged by the current rules
  * and settings versions, after the cursor, in one transaction, and moves the cursor. Answers
@@ -33,23 +52,14 @@ export async function recomputeStep(k: Knex, chunkSize = RECOMPUTE_CHUNK): Promi
         settings_version: judge.settingsVersion,
         cursor: null,
         finished_at: null,
+        started_at: now,
         updated_at: now,
       };
       await trx('recompute_jobs').insert(job).onConflict('name').merge();
     }
     if (job.finished_at !== null) return null;
-    const q = trx('canals')
-      .join('cases', 'cases.id', 'canals.case_id')
+    const q = staleCanals(unlockedCanals(trx), judge)
       .select('canals.id', 'canals.case_id')
-      .whereNotIn('cases.review_status', LOCKED)
-      .whereNot('canals.status', REMOVED)
-      .where((w) =>
-        w
-          .whereNull('canals.rules_version')
-          .orWhereNull('canals.settings_version')
-          .orWhereNot('canals.rules_version', judge.rulesVersion)
-          .orWhereNot('canals.settings_version', judge.settingsVersion),
-      )
       .orderBy('canals.id')
       .limit(chunkSize);
     if (job.cursor !== null) q.where('canals.id', '>', job.cursor);
@@ -130,4 +140,81 @@ export async function stopRecompute(k: Knex): Promise<void> {
   if (!run) return;
   run.stopping = true;
   await run.done;
+}
+
+/** Whether a re-judging runs in this server now. */
+export function isRecomputing(k: Knex): boolean {
+  return runs.has(k);
+}
+
+/**
+ * Asks for every unlocked canal to be judged again, even those the current rules and settings
+ * already judged (a director's "recompute all canals"): in one transaction their settings
+ * version is cleared and the job starts again from the first canal; then the re-judging is
+ * started. `before` runs inside that transaction with the number of canals (the audit line). Answers how many canals it
+ * will judge.
+ */
+export async function recomputeAll(
+  k: Knex,
+  before?: (trx: Knex.Transaction, canals: number) => Promise<void>,
+): Promise<number> {
+  const count = await k.transaction(async (trx) => {
+    const judge = await currentJudge(trx);
+    const ids = (await unlockedCanals(trx).pluck('canals.id')) as string[];
+    for (let i = 0; i < ids.length; i += 400)
+      await trx('canals')
+        .whereIn('id', ids.slice(i, i + 400))
+        .update({ settings_version: null });
+    await trx('recompute_jobs')
+      .insert({
+        name: JOB,
+        rules_version: judge.rulesVersion,
+        settings_version: judge.settingsVersion,
+        cursor: null,
+        finished_at: null,
+        started_at: judge.at,
+        updated_at: judge.at,
+      })
+      .onConflict('name')
+      .merge();
+    await before?.(trx, ids.length);
+    return ids.length;
+  });
+  void startRecompute(k);
+  return count;
+}
+
+export interface RecomputeProgress {
+  running: boolean;
+  /** Unlocked canals judged by the rules and settings in force, of all unlocked canals. */
+  done: number;
+  total: number;
+  startedAt: string | null;
+  finishedAt: string | null;
+  settingsVersion: number;
+  rulesVersion: number;
+}
+
+/**
+ * How far the re-judging has come, counted from the canals themselves (so it holds after a
+ * restart): `done` of `total` unlocked canals carry the current rules and settings versions.
+ * `startedAt` and `finishedAt` are those of the job towards these versions (null before it).
+ */
+export async function recomputeProgress(k: Knex): Promise<RecomputeProgress> {
+  const judge = await currentJudge(k);
+  const total = Number(((await unlockedCanals(k).count({ n: '*' }).first()) as { n: number | string }).n);
+  const stale = Number(
+    ((await staleCanals(unlockedCanals(k), judge).count({ n: '*' }).first()) as { n: number | string }).n,
+  );
+  const job = (await k('recompute_jobs').where({ name: JOB }).first()) as RecomputeJobRow | undefined;
+  const current = job && job.rules_version === judge.rulesVersion && job.settings_version === judge.settingsVersion;
+  return {
+    running: isRecomputing(k),
+    done: total - stale,
+    total,
+    startedAt: current ? (job.started_at ?? null) : null,
+    finishedAt: current ? job.finished_at : null,
+    settingsVersion: judge.settingsVersion,
+    rulesVersion: judge.rulesVersion,
+  };
 }

@@ -39,6 +39,12 @@ export const PUBLIC_ROUTES: ReadonlySet<string> = new Set([
 /** Routes open to some roles only; any other signed-in route is open to every role. */
 export const ROLE_ROUTES: Readonly<Record<string, readonly Role[]>> = {
   '/admin': ['director'],
+  // Attendings may read the settings their students are judged by; only a director changes them.
+  '/admin/settings': ['director', 'attending'],
+  '/admin/audit': ['director'],
+  '/api/settings/recompute': ['director'],
+  '/api/audit': ['director'],
+  '/api/audit.csv': ['director'],
   '/api/sync': ['student'],
   // Accounts, cohorts and assignments (docs/accounts.md).
   '/admin/accounts': ['director'],

@@ -4,59 +4,26 @@
  * that rises with every change. The tolerances' ranges and defaults are the rules core's.
  */
 import type { Knex } from 'knex';
-import { DEFAULT_TOLERANCES, TOLERANCE_RANGES, type Tolerances } from '../rules/index';
+import { DEFAULT_TOLERANCES, type Tolerances } from '../rules/index';
+import {
+  isSettingName,
+  SETTING_DEFS,
+  SETTING_NAMES,
+  settingError,
+  type SettingName,
+  type SettingValues,
+} from '../settings-contract';
 import { audit } from './audit';
 import type { SettingRow, SettingsVersionRow } from './tables';
 
-export interface SettingDef {
-  default: number;
-  min: number;
-  max: number;
-  /** Whole numbers only (counts, and 0/1 for yes/no). */
-  whole: boolean;
-  doc: string;
-}
-
-const REQUIREMENT_RANGE = { min: 0, max: 50, whole: true };
-
-/** Every setting: the tolerances (src/lib/rules/tolerances.ts), then the graduation requirements. */
-export const SETTING_DEFS = Object.freeze({
-  ...(Object.fromEntries(
-    (Object.keys(DEFAULT_TOLERANCES) as (keyof Tolerances)[]).map((key) => [
-      key,
-      {
-        default: DEFAULT_TOLERANCES[key],
-        ...TOLERANCE_RANGES[key],
-        whole: key === 'minAccessoryCones' || key === 'requireConeFitApproval',
-        doc: `A tolerance of the checks (docs/rules.md, "Tolerances").`,
-      },
-    ]),
-  ) as Record<keyof Tolerances, SettingDef>),
-  requiredAnteriorCanals: { default: 4, ...REQUIREMENT_RANGE, doc: 'Anterior canals to complete before graduation.' },
-  requiredPremolarCanals: { default: 4, ...REQUIREMENT_RANGE, doc: 'Premolar canals to complete before graduation.' },
-  requiredMolarCanals: { default: 6, ...REQUIREMENT_RANGE, doc: 'Molar canals to complete before graduation.' },
-}) satisfies Record<string, SettingDef>;
-
-export type SettingName = keyof typeof SETTING_DEFS;
-export type SettingValues = Record<SettingName, number>;
-export const SETTING_NAMES = Object.keys(SETTING_DEFS) as SettingName[];
+// The definitions are the contract's (src/lib/settings-contract.ts, docs/settings.md).
+export { SETTING_DEFS, SETTING_NAMES, settingError, type SettingName, type SettingValues };
+export type { SettingDef } from '../settings-contract';
 
 /** The settings in force and the version they carry. */
 export interface Settings {
   version: number;
   values: SettingValues;
-}
-
-const isSettingName = (key: string): key is SettingName => Object.hasOwn(SETTING_DEFS, key);
-
-/** Why `value` may not be stored for `name`, or null when it may. */
-export function settingError(name: string, value: unknown): string | null {
-  if (!isSettingName(name)) return `${name} is not a setting`;
-  const d = SETTING_DEFS[name];
-  if (typeof value !== 'number' || !Number.isFinite(value)) return `${name} must be a number`;
-  if (d.whole && !Number.isInteger(value)) return `${name} must be a whole number`;
-  if (value < d.min || value > d.max) return `${name} must lie between ${d.min} and ${d.max}`;
-  return null;
 }
 
 /** The settings version alone (one small query). */
@@ -105,8 +72,10 @@ export async function tolerances(k: Knex): Promise<Tolerances> {
 }
 
 export interface Requirements {
-  /** Canals to complete before graduation, by tooth group. */
+  /** Canals to complete before graduation, by tooth group (FDI x1–x3, x4–x5, x6–x8). */
   canals: { anterior: number; premolar: number; molar: number };
+  /** Canals to complete before graduation, by the case's setting. */
+  bySetting: { block: number; extracted: number; patient: number };
 }
 
 export async function requirements(k: Knex): Promise<Requirements> {
@@ -117,36 +86,75 @@ export async function requirements(k: Knex): Promise<Requirements> {
       premolar: values.requiredPremolarCanals,
       molar: values.requiredMolarCanals,
     },
+    bySetting: {
+      block: values.requiredBlockCanals,
+      extracted: values.requiredExtractedCanals,
+      patient: values.requiredPatientCanals,
+    },
   };
 }
 
-export class SettingsError extends Error {}
+/** A value that may not be stored; `field` names the setting. */
+export class SettingsError extends Error {
+  constructor(
+    message: string,
+    readonly field?: string,
+  ) {
+    super(message);
+  }
+}
+
+/** A change made to a version that is no longer in force; `current` is the one that is. */
+export class StaleSettingsError extends Error {
+  constructor(readonly current: Settings) {
+    super(`the settings changed since version ${current.version - 1}`);
+  }
+}
+
+/** One setting's value before and after a change, as the audit line keeps it. */
+export type SettingChange = { from: number; to: number };
 
 /**
- * Stores `changes` by `actorId` in one transaction with the raised version and an audit
- * line; answers the new settings. Throws SettingsError, storing nothing, when any value is
- * not a setting or lies outside its range. Re-judging the canals is the caller's
- * (settings-service.ts).
+ * Stores `changes` by `actorId` in one transaction with the raised version and an audit line
+ * holding each changed setting's old and new value; answers the settings then in force and
+ * the names that changed. Values equal to the stored ones change nothing: when none differs,
+ * nothing is written and the version stays. Throws, storing nothing, SettingsError when a
+ * value is not a setting or lies outside its range, and StaleSettingsError when
+ * `expectedVersion` is given and is not the version in force. Re-judging the canals is the
+ * caller's (settings-service.ts).
  */
 export async function writeSettings(
   k: Knex,
   actorId: number | null,
   changes: Readonly<Record<string, unknown>>,
-): Promise<Settings> {
-  const errors = Object.entries(changes)
-    .map(([name, value]) => settingError(name, value))
-    .filter((e): e is string => e !== null);
-  if (errors.length > 0) throw new SettingsError(errors.join('; '));
+  expectedVersion?: number,
+): Promise<Settings & { changed: SettingName[] }> {
+  for (const [name, value] of Object.entries(changes)) {
+    const error = settingError(name, value);
+    if (error !== null) throw new SettingsError(error, name);
+  }
   return k.transaction(async (trx) => {
-    for (const [key, value] of Object.entries(changes)) {
+    const before = await readSettings(trx);
+    if (expectedVersion !== undefined && before.version !== expectedVersion) throw new StaleSettingsError(before);
+    const diff: Partial<Record<SettingName, SettingChange>> = {};
+    for (const [name, value] of Object.entries(changes)) {
+      if (isSettingName(name) && before.values[name] !== value)
+        diff[name] = { from: before.values[name], to: value as number };
+    }
+    const changed = Object.keys(diff) as SettingName[];
+    if (changed.length === 0) return { ...before, changed };
+    for (const key of changed) {
       await trx('settings')
-        .insert({ key, value_json: JSON.stringify(value), updated_by: actorId, updated_at: trx.fn.now() })
+        .insert({ key, value_json: JSON.stringify(diff[key]!.to), updated_by: actorId, updated_at: trx.fn.now() })
         .onConflict('key')
         .merge();
     }
     await trx('settings_version').where({ id: 1 }).increment('version', 1);
     const settings = await readSettings(trx);
-    await audit(trx, actorId, 'settings.change', 'settings', String(settings.version), { changes });
-    return settings;
+    await audit(trx, actorId, 'settings.change', 'settings', String(settings.version), {
+      fromVersion: before.version,
+      changes: diff,
+    });
+    return { ...settings, changed };
   });
 }

@@ -312,6 +312,7 @@ export async function ingestBatch(
     }
     return {
       contractVersion: CONTRACT_VERSION,
+      settingsVersion: judge.settingsVersion,
       results: results.map((r, i) => r ?? { id: idOf(rawEvents[i]), status: 'rejected', error: 'not processed' }),
       canals,
     };

@@ -100,6 +100,8 @@ export interface RecomputeJobRow {
   /** The last canal id done; null before the first. */
   cursor: string | null;
   finished_at: string | null;
+  /** When the re-judging towards these versions began (null on rows written before it was kept). */
+  started_at: string | null;
   updated_at: string;
 }
 

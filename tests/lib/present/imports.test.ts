@@ -66,7 +66,8 @@ describe('src/lib/present', () => {
   it('uses no I/O, React or Node-only globals', () => {
     for (const f of files) {
       const src = readFileSync(f, 'utf8').replace(/\/\/.*$/gm, '');
-      expect(src, f).not.toMatch(/\b(fetch|indexedDB|localStorage|document|window|process|require)\b|node:|react/);
+      // `react` as a word: the audit log's words name the action user.reactivated.
+      expect(src, f).not.toMatch(/\b(fetch|indexedDB|localStorage|document|window|process|require|react)\b|node:/);
     }
   });
 });

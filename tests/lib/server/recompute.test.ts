@@ -60,7 +60,10 @@ describe('changeSettings and the re-judging it starts', () => {
     expect(await codes(signed.canal)).not.toContain('few-accessory-cones');
     expect(await db.k('canals').where({ id: signed.canal }).first()).toEqual(before);
     const line = await db.k('audit_log').where({ action: 'settings.change' }).orderBy('id', 'desc').first();
-    expect(JSON.parse(line!.detail_json!)).toEqual({ changes: { minAccessoryCones: 5 } });
+    expect(JSON.parse(line!.detail_json!)).toEqual({
+      fromVersion: changed.version - 1,
+      changes: { minAccessoryCones: { from: 3, to: 5 } },
+    });
   });
 
   it('refuses a value out of range, or a change by anyone but a director, storing nothing', async () => {

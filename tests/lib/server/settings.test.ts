@@ -75,8 +75,8 @@ describe('the tolerances at the bounds of their ranges (TOLERANCE_RANGES, docs/r
     const { min, max } = TOLERANCE_RANGES[key];
     expect(settingError(key, min)).toBeNull();
     expect(settingError(key, max)).toBeNull();
-    expect(settingError(key, min - 0.01)).toMatch(/between|whole/);
-    expect(settingError(key, max + 0.01)).toMatch(/between|whole/);
+    expect(settingError(key, min - 0.01)).toMatch(/between|whole|0 \(no\) or 1/);
+    expect(settingError(key, max + 0.01)).toMatch(/between|whole|0 \(no\) or 1/);
   });
   it('stores every tolerance at its minimum, then at its maximum, and the rules receive them', async () => {
     const at = (bound: 'min' | 'max') => Object.fromEntries(keys.map((k) => [k, TOLERANCE_RANGES[k][bound]]));

@@ -28,6 +28,7 @@ export const GET: APIRoute = async ({ params, locals, request }) => {
       canals: detail.canals,
       signoffs: detail.signoffs,
       comments: detail.comments,
+      settingsVersion: detail.settingsVersion,
     } satisfies CaseDetailAnswer,
     { headers: { ...NO_STORE, ETag: read.etag } },
   );
