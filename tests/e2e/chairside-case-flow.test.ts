@@ -119,7 +119,10 @@ describe('the case around the canals on the tablet', () => {
     await setUpDistal36(page);
     await tapScreen(page, page.getByRole('button', { name: 'Finish tooth' }));
     await tapScreen(page, page.getByRole('button', { name: 'Restored', exact: true }));
+    // Saved first: the finishing screen changes once it is, and ignores taps for a moment then.
+    await page.getByText('✓ Access restored').waitFor();
     await tapScreen(page, page.getByRole('button', { name: 'Taken', exact: true }));
+    await page.getByText('✓ Post-operative radiograph taken').waitFor();
     await tapScreen(page, page.getByRole('button', { name: 'Submit for review' }));
     const warnings = page.getByTestId('submit-warnings');
     await expect(warnings.textContent()).resolves.toContain('D canal is unfilled');

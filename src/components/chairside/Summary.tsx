@@ -28,7 +28,9 @@ export function Summary(props: { info: CaseInfo; tablet: TabletCase; locked?: bo
   // Case-level events that count, as the rules core reads them.
   const restored = caseLevel.find((e): e is EventOf<'access.restored'> => e.type === 'access.restored');
   const postOp = caseLevel.some((e) => e.type === 'radiograph.taken' && e.data.purpose === 'post-op');
-  const submitted = info.submitted;
+  // A returned case is submitted again from here; one submitted since is waiting for review.
+  const review = useChairside((s) => s.reviews[info.caseId]);
+  const submitted = info.submitted && review !== 'returned';
   const tooth = info.setting !== 'block';
   const rec = <T extends EventType>(type: T, data: EventData<T>, label: string) => record(type, data, { label });
   const shownCanals = canals.map((c) => ({

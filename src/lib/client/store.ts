@@ -235,6 +235,12 @@ export const useChairside = create<ChairsideState>((set, get) => {
         set({ error: `Not saved on this tablet: ${e instanceof Error ? e.message : String(e)}` });
         return null;
       }
+      // Submitting a returned case again: it waits for review from now, not from the next pull.
+      if (type === 'case.submitted' && get().reviews[caseId] === 'returned') {
+        const reviews = { ...get().reviews, [caseId]: 'submitted' as const };
+        set({ reviews });
+        void setMeta([id, 'reviews'], reviews);
+      }
       if (navigator.onLine) kickSoon();
       return event;
     },
