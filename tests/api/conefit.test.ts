@@ -8,7 +8,7 @@ import { sqliteOptions } from '../../src/lib/server/knex-options';
 import { apiSignIn, DEMO, type ApiClient } from '../helpers/client';
 import { EventWriter, type WireEvent } from '../helpers/events';
 import { freePort, startServer, type TestServer } from '../helpers/server';
-import { testSmtp, type Received, type TestSmtp } from '../helpers/smtp';
+import { testSmtp, type Received, type TestSmtp, mailEnv } from '../helpers/smtp';
 
 let server: TestServer;
 let smtp: TestSmtp;
@@ -22,12 +22,7 @@ beforeAll(async () => {
   await smtp.start();
   server = await startServer({
     env: {
-      SMTP_HOST: '127.0.0.1',
-      SMTP_PORT: String(smtp.port),
-      MAIL_FROM: 'Coneline <coneline@school.example>',
-      PUBLIC_URL,
-      MAIL_POLL_MS: '200',
-      MAIL_RETRY_MS: '200',
+      ...mailEnv(smtp.port, PUBLIC_URL),
     },
   });
   k = knexFactory(sqliteOptions(server.dbFile));

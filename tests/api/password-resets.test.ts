@@ -11,7 +11,7 @@ import { PAIR_FAILURES } from '../../src/lib/server/signin-limits';
 import { hashPassword } from '../../src/lib/server/users';
 import { anonymous, apiSignIn, DEMO, type ApiClient } from '../helpers/client';
 import { freePort, startServer, type TestServer } from '../helpers/server';
-import { testSmtp, type Received, type TestSmtp } from '../helpers/smtp';
+import { testSmtp, type Received, type TestSmtp, mailEnv } from '../helpers/smtp';
 
 const PUBLIC_URL = 'https://coneline.school.example';
 const NEW_PASSWORD = 'fresh master cone fit 2026';
@@ -25,11 +25,7 @@ beforeAll(async () => {
   await smtp.start();
   server = await startServer({
     env: {
-      SMTP_HOST: '127.0.0.1',
-      SMTP_PORT: String(smtp.port),
-      MAIL_FROM: 'Coneline <coneline@school.example>',
-      PUBLIC_URL,
-      MAIL_POLL_MS: '200',
+      ...mailEnv(smtp.port, PUBLIC_URL),
       // Each test speaks from an address of its own (X-Forwarded-For), so limits do not mix.
       TRUST_PROXY: '1',
     },

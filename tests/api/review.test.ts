@@ -5,7 +5,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { apiSignIn, DEMO, type ApiClient } from '../helpers/client';
 import { EventWriter, type WireEvent } from '../helpers/events';
 import { freePort, startServer, type TestServer } from '../helpers/server';
-import { testSmtp, type Received, type TestSmtp } from '../helpers/smtp';
+import { testSmtp, type Received, type TestSmtp, mailEnv } from '../helpers/smtp';
 
 let server: TestServer;
 let smtp: TestSmtp;
@@ -17,12 +17,7 @@ beforeAll(async () => {
   await smtp.start();
   server = await startServer({
     env: {
-      SMTP_HOST: '127.0.0.1',
-      SMTP_PORT: String(smtp.port),
-      MAIL_FROM: 'Coneline <coneline@school.example>',
-      PUBLIC_URL,
-      MAIL_POLL_MS: '200',
-      MAIL_RETRY_MS: '200',
+      ...mailEnv(smtp.port, PUBLIC_URL),
     },
   });
   for (const who of ['mira', 'tomas', 'helen', 'samuel', 'ingrid'] as const)

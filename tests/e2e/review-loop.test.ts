@@ -14,6 +14,7 @@ import { launchBrowser, signIn } from '../helpers/browser';
 import { Driver, openChairside, recordCanal, setUpDistal36, tapScreen } from '../helpers/chairside';
 import { apiSignIn, DEMO, type ApiClient } from '../helpers/client';
 import { startServer, type TestServer } from '../helpers/server';
+import { mailEnv } from '../helpers/smtp';
 
 const PUBLIC_URL = 'https://coneline.larkfield.example';
 let mailbox: Mailbox;
@@ -27,12 +28,7 @@ beforeAll(async () => {
   [server, browser] = await Promise.all([
     startServer({
       env: {
-        SMTP_HOST: '127.0.0.1',
-        SMTP_PORT: String(mailbox.smtpPort),
-        MAIL_FROM: 'Coneline <coneline@larkfield.example>',
-        PUBLIC_URL,
-        MAIL_POLL_MS: '200',
-        MAIL_RETRY_MS: '200',
+        ...mailEnv(mailbox.smtpPort, PUBLIC_URL),
       },
     }),
     launchBrowser(),

@@ -61,3 +61,15 @@ export function testSmtp(port: number): TestSmtp {
     },
   };
 }
+
+/** The server's mail settings for a test: SMTP on loopback at `port`, quick polls and retries. */
+export function mailEnv(port: number, publicUrl: string): Record<string, string> {
+  return {
+    SMTP_HOST: '127.0.0.1',
+    SMTP_PORT: String(port),
+    MAIL_FROM: 'Coneline <coneline@school.example>',
+    PUBLIC_URL: publicUrl,
+    MAIL_POLL_MS: '200',
+    MAIL_RETRY_MS: '200',
+  };
+}

@@ -19,38 +19,15 @@ import { listCases } from './cases';
 import { teethOf } from './review-queue';
 import { config } from './config';
 import { db } from './db';
+import { dayStartIn } from '../present/zone';
 
 /** Every FDI number of each tooth group, for the query (the review queue's grouping, from the rules core). */
 const TEETH_BY_GROUP: Readonly<Record<ToothGroupName, number[]>> = Object.fromEntries(
   TOOTH_GROUPS.map((g) => [g, teethOf(g)]),
 ) as Record<ToothGroupName, number[]>;
 
-/** The offset of `timeZone` from UTC at `instant`, in ms. */
-function zoneOffset(instant: number, timeZone: string): number {
-  const parts = new Intl.DateTimeFormat('en-US', {
-    timeZone,
-    hourCycle: 'h23',
-    year: 'numeric',
-    month: '2-digit',
-    day: '2-digit',
-    hour: '2-digit',
-    minute: '2-digit',
-    second: '2-digit',
-  }).formatToParts(new Date(instant));
-  const get = (type: string) => Number(parts.find((p) => p.type === type)?.value);
-  const wall = Date.UTC(get('year'), get('month') - 1, get('day'), get('hour'), get('minute'), get('second'));
-  return wall - Math.floor(instant / 1000) * 1000;
-}
-
 /** The instant a clinic day (YYYY-MM-DD) begins in `timeZone`, `days` later, as an ISO string. */
-export function dayStart(date: string, timeZone: string, days = 0): string {
-  const [y, m, d] = date.split('-').map(Number) as [number, number, number];
-  const wall = Date.UTC(y, m - 1, d + days);
-  // Twice: the offset at the guess may differ from the one at the answer across a clock change.
-  let t = wall - zoneOffset(wall, timeZone);
-  t = wall - zoneOffset(t, timeZone);
-  return new Date(t).toISOString();
-}
+export const dayStart = (date: string, timeZone: string, days = 0): string => dayStartIn(date, timeZone, days);
 
 /** Stored instants are kept as written (Z or an offset): compared in one UTC form. */
 const utc = (column: string) => `coalesce(strftime('%Y-%m-%dT%H:%M:%fZ', ${column}), ${column})`;
